@@ -1,0 +1,167 @@
+#!/usr/bin/env node
+/** The eyeproof command: parses, calls the library, prints, and picks the exit code — nothing else. */
+import { existsSync } from 'node:fs';
+import { Command, CommanderError, Option } from 'commander';
+import { ConfigError, InputError, OutputError } from '../src/errors.js';
+import { displayPresets, viewerPresets } from '../src/config/presets.js';
+import { setupJsonSchema } from '../src/config/schema.js';
+import { mergeSetupJson, validateSetup } from '../src/config/validate.js';
+import type { Setup } from '../src/config/setup.js';
+import { readInputBytes, readSetupJson } from '../src/io/read-input.js';
+import { prepareOutputFolder, writeOutputsAtomically } from '../src/io/write-outputs.js';
+import { computeNumbers } from '../src/pipeline.js';
+import { proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
+import { numbersReport } from '../src/report/build-report.js';
+import { CAUTION_SHORT } from '../src/report/cautions.js';
+import { EXIT } from './exit-codes.js';
+import { formatNumbersTable } from './format-numbers.js';
+
+interface SetupOptions {
+  setup?: string;
+  viewer?: string;
+  gaze?: string;
+  acuityModel?: string;
+}
+
+type Json = Record<string, unknown>;
+
+/** Builds the setup from presets, files and flags; returns it with a name for messages. */
+async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source: string }> {
+  let raw: Json = {};
+  const sources: string[] = [];
+  if (opts.setup) {
+    if (displayPresets.some((p) => p.name === opts.setup)) raw = { display: { preset: opts.setup } };
+    else if (existsSync(opts.setup) || /\.json$/i.test(opts.setup)) raw = (await readSetupJson(opts.setup)) as Json;
+    else {
+      throw new ConfigError('--setup', [{ path: '--setup', received: opts.setup, expected: `a setup file or one of the display presets ${displayPresets.map((p) => p.name).join(', ')}` }]);
+    }
+    sources.push(opts.setup);
+  }
+  if (typeof raw !== 'object' || raw === null || Array.isArray(raw)) return { setup: validateSetup(raw, opts.setup ?? 'setup'), source: opts.setup ?? 'setup' };
+  const over: Json = {};
+  if (opts.viewer) {
+    if (viewerPresets.some((p) => p.name === opts.viewer)) over.viewer = { preset: opts.viewer };
+    else if (existsSync(opts.viewer) || /\.json$/i.test(opts.viewer)) {
+      const v = (await readSetupJson(opts.viewer)) as Json;
+      over.viewer = v && typeof v === 'object' && 'viewer' in v ? v.viewer : v;
+    } else {
+      throw new ConfigError('--viewer', [{ path: '--viewer', received: opts.viewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}` }]);
+    }
+    sources.push(opts.viewer);
+  }
+  if (opts.gaze !== undefined) {
+    const m = /^\s*(-?\d+(?:\.\d+)?)\s*,\s*(-?\d+(?:\.\d+)?)\s*$/.exec(opts.gaze);
+    if (!m) throw new ConfigError('--gaze', [{ path: '--gaze', received: opts.gaze, expected: 'x,y in frame pixels, e.g. 1280,720' }]);
+    over.gaze = { xPx: Number(m[1]), yPx: Number(m[2]) };
+  }
+  if (opts.acuityModel) over.models = { acuity: opts.acuityModel };
+  const merged = mergeSetupJson(raw, over);
+  // A viewer given by flag replaces the file's viewer rather than merging into it.
+  if (over.viewer) merged.viewer = over.viewer;
+  const source = sources.length ? sources.join(' + ') : 'built-in defaults';
+  return { setup: validateSetup(merged, source), source };
+}
+
+function progress(quiet: boolean): (stage: string) => void {
+  const start = performance.now();
+  return (stage) => {
+    if (!quiet) process.stderr.write(`eyeproof: ${stage}… (${((performance.now() - start) / 1000).toFixed(1)} s)\n`);
+  };
+}
+
+function addSetupOptions(cmd: Command): Command {
+  return cmd
+    .option('-s, --setup <preset|file>', 'display preset name or setup JSON file (default: desktop-27in)')
+    .option('-v, --viewer <preset|file>', 'viewer preset name or viewer JSON file (default: age-25)')
+    .option('-g, --gaze <x,y>', 'where the viewer looks, frame pixels (default: the centre)')
+    .addOption(new Option('--acuity-model <name>', 'acuity model').choices(['rgc-sampling', 'contrast-threshold']));
+}
+
+export function buildProgram(): Command {
+  const program = new Command('eyeproof')
+    .description('Shows what a viewer\'s retina receives and resolves when looking at a rendered interface frame.\n' + CAUTION_SHORT)
+    .version('0.1.0')
+    .showHelpAfterError()
+    .exitOverride();
+
+  addSetupOptions(program.command('proof <frame>'))
+    .description('simulate one viewer looking at a frame; writes percept.png, detail-map.png, compare.png and report.json')
+    .option('-o, --out <folder>', 'output folder (created if missing)', 'eyeproof-out')
+    .option('-q, --quiet', 'no progress on stderr')
+    .option('--json', 'print report.json on stdout and nothing else')
+    .addHelpText('after', `
+Examples:
+  $ eyeproof proof sample-scenes/ferry-console.png
+  $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
+  $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold`)
+    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean }) => {
+      const { setup, source } = await resolveSetup(opts);
+      const bytes = await readInputBytes(frame, 'the frame');
+      await prepareOutputFolder(opts.out, [frame, opts.setup ?? '', opts.viewer ?? ''].filter(Boolean), PROOF_OUTPUT_NAMES);
+      const { files, report } = await proofFrame(bytes, frame, setup, source, progress(Boolean(opts.quiet || opts.json)));
+      const written = await writeOutputsAtomically(opts.out, files);
+      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      else if (!opts.quiet) process.stderr.write(`eyeproof: wrote ${written.join(', ')}\n`);
+    });
+
+  addSetupOptions(program.command('numbers'))
+    .description('print the derived figures of a setup without a frame: geometry, eye state, acuity by eccentricity')
+    .option('--json', 'print JSON (the display, eye and acuity objects of report.json)')
+    .addHelpText('after', `
+Examples:
+  $ eyeproof numbers --setup headset-wide --viewer age-25 --json
+  $ eyeproof numbers --setup vehicle-cluster --viewer age-70`)
+    .action(async (opts: SetupOptions & { json?: boolean }) => {
+      const { setup } = await resolveSetup(opts);
+      const numbers = computeNumbers(setup);
+      const report = numbersReport(setup, numbers, { name: setup.models.acuity, summary: '', source: '' });
+      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      else process.stdout.write(formatNumbersTable(setup, numbers));
+    });
+
+  program.command('presets')
+    .description('list the built-in display and viewer presets')
+    .option('--json', 'print JSON with each preset\'s values and basis')
+    .addHelpText('after', '\nExample:\n  $ eyeproof presets')
+    .action((opts: { json?: boolean }) => {
+      if (opts.json) {
+        process.stdout.write(`${JSON.stringify({ displays: displayPresets, viewers: viewerPresets }, null, 2)}\n`);
+        return;
+      }
+      const width = Math.max(...[...displayPresets, ...viewerPresets].map((p) => p.name.length));
+      const lines = ['Displays (--setup):', ...displayPresets.map((p) => `  ${p.name.padEnd(width)}  ${p.summary}`), '', 'Viewers (--viewer):', ...viewerPresets.map((p) => `  ${p.name.padEnd(width)}  ${p.summary}`), ''];
+      process.stdout.write(lines.join('\n'));
+    });
+
+  program.command('schema')
+    .description('print the JSON Schema of setup files (for editor completion)')
+    .addHelpText('after', '\nExample:\n  $ eyeproof schema > setup.schema.json')
+    .action(() => {
+      process.stdout.write(`${JSON.stringify(setupJsonSchema(), null, 2)}\n`);
+    });
+  return program;
+}
+
+function report(err: unknown): number {
+  if (err instanceof CommanderError) return err.exitCode === 0 ? EXIT.ok : EXIT.usage;
+  if (err instanceof ConfigError) {
+    process.stderr.write(`eyeproof: the setup is not valid.\n${err.message}\nFix these fields (see \`eyeproof schema\` and the README's setup reference) and run again. Nothing was written.\n`);
+    return EXIT.setup;
+  }
+  if (err instanceof InputError) {
+    process.stderr.write(`eyeproof: cannot use the input: ${err.message}.\n${err.fix} Nothing was written.\n`);
+    return EXIT.input;
+  }
+  if (err instanceof OutputError) {
+    process.stderr.write(`eyeproof: cannot write the output: ${err.message}.\n${err.fix} Nothing was written.\n`);
+    return EXIT.output;
+  }
+  process.stderr.write(`eyeproof: internal error — please report it with the command you ran.\n${(err as Error).stack ?? String(err)}\n`);
+  return EXIT.internal;
+}
+
+try {
+  await buildProgram().parseAsync(process.argv);
+} catch (err) {
+  process.exitCode = report(err);
+}

@@ -1,0 +1,33 @@
+/** The human-readable table printed by `eyeproof numbers`. */
+import type { Setup } from '../src/config/setup.js';
+import type { DerivedNumbers } from '../src/pipeline.js';
+import { CAUTION_SHORT } from '../src/report/cautions.js';
+
+const f = (v: number, digits = 2): string => v.toFixed(digits);
+
+export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
+  const { display: d, eye: e } = n;
+  const rows: [string, string][] = [
+    ['display', `${setup.presetNames.display ?? 'custom'} (${d.kind}), ${d.resolutionPx.join('×')} px`],
+    ['field of view', `${f(d.fieldOfViewDeg.horizontal, 1)}° × ${f(d.fieldOfViewDeg.vertical, 1)}°`],
+    ['pixels per degree at gaze', `${f(d.pixelsPerDegreeAtGaze, 1)} px/° (${f(d.arcminPerFramePxAtGaze, 3)}′ per px)`],
+    ['focal distance', `${f(d.focalDistanceM, 3)} m (${f(1 / d.focalDistanceM)} D)`],
+    ['viewer', `${setup.presetNames.viewer ?? 'custom'}: ${setup.viewer.ageYears} y, sphere ${f(setup.viewer.refraction.sphereD)} D, cylinder ${f(setup.viewer.refraction.cylinderD)} D, ${setup.viewer.eyes} eye${setup.viewer.eyes === 'both' ? 's' : ''}`],
+    ['adapting luminance', `${f(n.light.adaptingLuminanceCdM2, 1)} cd/m² (${n.light.adaptingLuminanceFrom})`],
+    ['pupil', `${f(e.pupilDiameterMm)} mm (${e.pupilSource}${e.pupilAgeClamped ? ', age clamped to 20–83' : ''})`],
+    ['accommodation amplitude', `${f(e.accommodationAmplitudeD)} D (Hofstetter mean)`],
+    ['accommodation demand / supplied', `${f(e.accommodationDemandD)} D / ${f(e.accommodationD)} D`],
+    ['residual defocus', `${f(e.defocusD)} D${e.astigmatismD ? `, cylinder ${f(e.astigmatismD)} D, blur strength ${f(e.blurStrengthD)} D` : ''}`],
+    ['blur circle', `${f(e.blurCircleArcmin)}′`],
+    ['optical limit (mean MTF = 0.1)', `${f(e.opticalCutoffCpd, 1)} cpd`],
+  ];
+  const width = Math.max(...rows.map(([k]) => k.length));
+  const lines = rows.map(([k, v]) => `${k.padEnd(width)}  ${v}`);
+  lines.push('', `acuity (${setup.models.acuity}) on the horizontal meridian:`);
+  lines.push('  ecc °  meridian     cutoff cpd  letter ′  letter px  reading px');
+  for (const r of n.acuity) {
+    lines.push(`  ${String(r.eccentricityDeg).padStart(5)}  ${r.meridian.padEnd(11)}  ${f(r.cutoffCpd, 1).padStart(10)}  ${f(r.smallestLetterArcmin, 1).padStart(8)}  ${f(r.smallestLetterPx, 1).padStart(9)}  ${f(r.readingLetterPx, 1).padStart(10)}`);
+  }
+  lines.push('', `letter = smallest legible capital height; reading = 2× that for fluent reading.`, CAUTION_SHORT, '');
+  return lines.join('\n');
+}

@@ -1,0 +1,17 @@
+/** Photometry of display pixels. */
+import type { Display } from '../config/setup.js';
+import type { LinearRgb, Plane } from '../image/plane.js';
+import { LUMINANCE_WEIGHTS } from './srgb.js';
+
+/**
+ * Luminance in cd/m² of each pixel: Y_linear × (peak − black) + black, with Y_linear from the
+ * sRGB matrix (IEC 61966-2-1).
+ */
+export function luminancePlaneCdM2(image: LinearRgb, display: Pick<Display, 'peakLuminanceCdM2' | 'blackLuminanceCdM2'>): Plane {
+  const [wr, wg, wb] = LUMINANCE_WEIGHTS;
+  const [r, g, b] = image.planes;
+  const range = display.peakLuminanceCdM2 - display.blackLuminanceCdM2;
+  const data = new Float32Array(r.length);
+  for (let i = 0; i < data.length; i++) data[i] = (wr * r[i] + wg * g[i] + wb * b[i]) * range + display.blackLuminanceCdM2;
+  return { width: image.width, height: image.height, data };
+}

@@ -1,0 +1,142 @@
+/**
+ * Declarations of every setup parameter. This is the one place where names, units, ranges,
+ * defaults and sources are written; validation, the JSON Schema and the README table derive from it.
+ */
+import type { ObjectDecl } from './declare.js';
+
+const luminance = {
+  peakLuminanceCdM2: {
+    type: 'number', unit: 'cd/m²', minimum: 0.01, maximum: 100000,
+    doc: 'Luminance of full white on the display (after any lens transmission).',
+  },
+  blackLuminanceCdM2: {
+    type: 'number', unit: 'cd/m²', minimum: 0, maximum: 1000, default: 0,
+    doc: 'Luminance of full black on the display, including reflected room light.',
+  },
+} as const;
+
+const resolutionPx = {
+  type: 'tuple', names: ['width', 'height'], item: { type: 'number', unit: 'px', minimum: 16, maximum: 16384, integer: true },
+  doc: 'Pixels of the display (or of one eye buffer). A frame of another size but the same aspect ratio is scaled to fill it.',
+} as const;
+
+export const screenDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'A flat screen viewed from a stated distance.',
+  fields: {
+    widthMm: { type: 'number', unit: 'mm', minimum: 10, maximum: 20000, doc: 'Width of the active area. Give width and height, or diagonalIn.' },
+    heightMm: { type: 'number', unit: 'mm', minimum: 10, maximum: 20000, doc: 'Height of the active area.' },
+    diagonalIn: { type: 'number', unit: 'in', minimum: 1, maximum: 500, doc: 'Diagonal of the active area; width and height follow from the resolution’s aspect ratio (square pixels).' },
+    resolutionPx,
+    viewingDistanceMm: { type: 'number', unit: 'mm', minimum: 100, maximum: 50000, doc: 'Distance from the eye to the screen plane, along the screen’s normal.' },
+    eyeOffsetMm: {
+      type: 'tuple', names: ['right', 'up'], item: { type: 'number', unit: 'mm', minimum: -20000, maximum: 20000 }, default: [0, 0],
+      doc: 'Where the eye sits relative to the screen centre, in the screen plane (x to the right, y up).',
+    },
+    ...luminance,
+  },
+};
+
+export const headsetDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'One eye buffer of a head-mounted display in rectilinear (tangent-space) projection.',
+  fields: {
+    resolutionPx,
+    fieldOfViewDeg: {
+      type: 'tuple', names: ['horizontal', 'vertical'], item: { type: 'number', unit: '°', minimum: 1, maximum: 170 },
+      doc: 'Field of view of the eye buffer, symmetric about the lens axis.',
+    },
+    focalDistanceM: { type: 'number', unit: 'm', minimum: 0.1, maximum: 1000, doc: 'Distance of the virtual image. Give this or lens.' },
+    lens: {
+      type: 'object', doc: 'A thin magnifier lens; the virtual image distance follows from it.',
+      fields: {
+        focalLengthMm: { type: 'number', unit: 'mm', minimum: 5, maximum: 500, doc: 'Focal length of the lens.' },
+        screenDistanceMm: { type: 'number', unit: 'mm', minimum: 1, maximum: 500, doc: 'Distance from the lens to the panel; less than the focal length.' },
+        eyeReliefMm: {
+          type: 'number', unit: 'mm', minimum: 0, maximum: 100, default: 12,
+          doc: 'Distance from the lens to the eye.', source: 'common practice (10–20 mm in headsets)',
+        },
+      },
+    },
+    ...luminance,
+  },
+};
+
+export const viewerDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'The viewer whose eye is modelled.',
+  fields: {
+    ageYears: {
+      type: 'number', unit: 'years', minimum: 1, maximum: 110, default: 25,
+      doc: 'Age; sets accommodation (Hofstetter 1950) and pupil (Watson & Yellott 2012, valid 20–83: outside that the formula is clamped).',
+    },
+    refraction: {
+      type: 'object', doc: 'The refractive error left uncorrected while viewing (after any glasses or lenses worn).',
+      fields: {
+        sphereD: { type: 'number', unit: 'D', minimum: -30, maximum: 30, default: 0, doc: 'Sphere; + is hyperopic (needs more accommodation), − is myopic.' },
+        cylinderD: { type: 'number', unit: 'D', minimum: -10, maximum: 10, default: 0, doc: 'Cylinder (either sign convention; its magnitude is used).' },
+        axisDeg: { type: 'number', unit: '°', minimum: 0, maximum: 180, default: 0, doc: 'Cylinder axis.' },
+      },
+    },
+    pupilDiameterMm: {
+      type: 'number', unit: 'mm', minimum: 1, maximum: 9, words: ['auto'], default: undefined,
+      doc: 'Pupil diameter, or "auto" from light, field size, age and eyes (Watson & Yellott 2012). Default "auto".',
+    },
+    eyes: { type: 'enum', values: ['right', 'left', 'both'], default: 'both', doc: 'Which eye(s) view the frame.' },
+  },
+};
+
+export const lightDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'The light the viewer is adapted to.',
+  fields: {
+    adaptingLuminanceCdM2: {
+      type: 'number', unit: 'cd/m²', minimum: 0.000001, maximum: 100000, words: ['auto'],
+      doc: 'Luminance the eye adapts to, or "auto": the mean luminance of the frame within the adapting field around the gaze. Default "auto".',
+    },
+    adaptingFieldDeg: {
+      type: 'number', unit: '°', minimum: 1, maximum: 180, default: 60,
+      doc: 'Diameter of the adapting field (used by the pupil model).', source: 'Watson & Yellott 2012 use the field area in deg²',
+    },
+  },
+};
+
+export const gazeDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'Where the viewer looks, in frame pixels (default: the frame centre).',
+  fields: {
+    xPx: { type: 'number', unit: 'px', minimum: 0, maximum: 16384, doc: 'Column of the gaze point (0 = left edge).' },
+    yPx: { type: 'number', unit: 'px', minimum: 0, maximum: 16384, doc: 'Row of the gaze point (0 = top edge).' },
+  },
+};
+
+export const frameDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'How the frame file is read.',
+  fields: {
+    backgroundRgb: {
+      type: 'tuple', names: ['red', 'green', 'blue'], item: { type: 'number', unit: '', minimum: 0, maximum: 255, integer: true },
+      default: [0, 0, 0], doc: 'sRGB 8-bit colour that transparent pixels are composited over (as a compositor does, in encoded values).',
+    },
+  },
+};
+
+export const modelsDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'Which published model is used where there is a choice.',
+  fields: {
+    acuity: {
+      type: 'enum', values: ['rgc-sampling', 'contrast-threshold'], default: 'rgc-sampling',
+      doc: 'rgc-sampling: Nyquist limit of one midget ganglion-cell lattice (Watson 2014); contrast-threshold: cutoff of the Geisler & Perry (1998) threshold model.',
+    },
+  },
+};
+
+/** Top-level sections of a setup file. `display` depends on `display.kind`. */
+export const sectionDecls = {
+  viewer: viewerDecl,
+  light: lightDecl,
+  gaze: gazeDecl,
+  frame: frameDecl,
+  models: modelsDecl,
+} as const;

@@ -1,0 +1,65 @@
+/** The validated, resolved setup that the pipeline works from. Every number has its unit in its name. */
+
+export interface ScreenDisplay {
+  kind: 'screen';
+  widthMm: number;
+  heightMm: number;
+  resolutionPx: [number, number];
+  viewingDistanceMm: number;
+  /** Eye position relative to the screen centre, in the screen plane: [right, up]. */
+  eyeOffsetMm: [number, number];
+  peakLuminanceCdM2: number;
+  blackLuminanceCdM2: number;
+}
+
+export interface HeadsetLens {
+  focalLengthMm: number;
+  screenDistanceMm: number;
+  eyeReliefMm: number;
+}
+
+export interface HeadsetDisplay {
+  kind: 'headset';
+  resolutionPx: [number, number];
+  fieldOfViewDeg: [number, number];
+  /** Distance of the virtual image, given or derived from `lens`. */
+  focalDistanceM: number;
+  lens?: HeadsetLens;
+  peakLuminanceCdM2: number;
+  blackLuminanceCdM2: number;
+}
+
+export type Display = ScreenDisplay | HeadsetDisplay;
+
+export type Eyes = 'right' | 'left' | 'both';
+
+export interface Viewer {
+  ageYears: number;
+  refraction: { sphereD: number; cylinderD: number; axisDeg: number };
+  pupilDiameterMm: number | 'auto';
+  eyes: Eyes;
+}
+
+export interface Light {
+  adaptingLuminanceCdM2: number | 'auto';
+  adaptingFieldDeg: number;
+}
+
+export interface GazePx {
+  xPx: number;
+  yPx: number;
+}
+
+export type AcuityModelName = 'rgc-sampling' | 'contrast-threshold';
+
+export interface Setup {
+  display: Display;
+  viewer: Viewer;
+  light: Light;
+  /** Undefined means the centre of the frame. */
+  gaze?: GazePx;
+  frame: { backgroundRgb: [number, number, number] };
+  models: { acuity: AcuityModelName };
+  /** Names of the presets the setup started from, for captions and the report. */
+  presetNames: { display?: string; viewer?: string };
+}

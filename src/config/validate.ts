@@ -1,0 +1,242 @@
+/**
+ * Validation of setup files: once, at the edge, collecting every problem with its path, the value
+ * received and what is allowed. Unknown keys are rejected with the nearest valid key as a hint.
+ */
+import { closest } from 'fastest-levenshtein';
+import { ConfigError, type ConfigProblem } from '../errors.js';
+import { inchToMm } from '../units.js';
+import { describeExpected, type Decl, type ObjectDecl } from './declare.js';
+import { headsetDecl, screenDecl, sectionDecls } from './params.js';
+import { defaultDisplayPreset, defaultViewerPreset, displayPresets, findPreset, viewerPresets, type Preset } from './presets.js';
+import type { Display, Setup } from './setup.js';
+
+/** Keys a setup file may hold at its top level besides the sections. */
+const topLevelExtras = ['$schema', 'description'] as const;
+
+type Json = Record<string, unknown>;
+
+const isObject = (v: unknown): v is Json => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** Deep merge of plain objects; arrays and values in `over` replace those in `base`. */
+export function mergeSetupJson(base: Json, over: Json): Json {
+  const out: Json = { ...base };
+  for (const [key, value] of Object.entries(over)) {
+    out[key] = isObject(value) && isObject(base[key]) ? mergeSetupJson(base[key] as Json, value) : value;
+  }
+  return out;
+}
+
+function suggestion(key: string, allowed: readonly string[]): string | undefined {
+  if (allowed.length === 0) return undefined;
+  const best = closest(key, [...allowed]);
+  return `did you mean "${best}"? Allowed keys: ${allowed.join(', ')}`;
+}
+
+/** Checks one value against its declaration; returns the value with defaults filled in. */
+function checkValue(value: unknown, decl: Decl, path: string, problems: ConfigProblem[]): unknown {
+  const fail = (): undefined => {
+    problems.push({ path, received: value, expected: describeExpected(decl) });
+    return undefined;
+  };
+  switch (decl.type) {
+    case 'number': {
+      if (value === undefined) return decl.default;
+      if (typeof value === 'string' && decl.words?.includes(value)) return value;
+      if (typeof value !== 'number' || !Number.isFinite(value)) return fail();
+      if (value < decl.minimum || value > decl.maximum) return fail();
+      if (decl.integer && !Number.isInteger(value)) return fail();
+      return value;
+    }
+    case 'enum':
+      if (value === undefined) return decl.default;
+      return typeof value === 'string' && decl.values.includes(value) ? value : fail();
+    case 'tuple': {
+      if (value === undefined) return decl.default ? [...decl.default] : undefined;
+      if (!Array.isArray(value) || value.length !== decl.names.length) return fail();
+      const items = value.map((v, i) => checkValue(v, { ...decl.item, doc: '' }, `${path}[${i}]`, problems));
+      return items.some((v) => v === undefined) ? undefined : items;
+    }
+    case 'object':
+      if (value === undefined) value = {};
+      if (!isObject(value)) return fail();
+      return checkObject(value, decl, path, problems);
+  }
+}
+
+function checkObject(value: Json, decl: ObjectDecl, path: string, problems: ConfigProblem[], alsoAllowed: readonly string[] = [], elsewhere?: { decl: ObjectDecl; where: string }): Json {
+  const out: Json = {};
+  const allowed = Object.keys(decl.fields);
+  for (const key of Object.keys(value)) {
+    if (key in decl.fields || alsoAllowed.includes(key)) continue;
+    const hint = elsewhere && key in elsewhere.decl.fields ? `this key is only for ${elsewhere.where}` : suggestion(key, allowed);
+    problems.push({ path: `${path}.${key}`, received: value[key], expected: 'no such key', hint });
+  }
+  for (const [key, fieldDecl] of Object.entries(decl.fields)) {
+    const checked = checkValue(value[key], fieldDecl, `${path}.${key}`, problems);
+    if (checked !== undefined) out[key] = checked;
+  }
+  return out;
+}
+
+function applyPreset(section: Json | undefined, list: readonly Preset[], fallback: string | undefined, path: string, problems: ConfigProblem[]): { merged: Json; name?: string } {
+  const given = section ?? {};
+  const requested = given.preset ?? (Object.keys(given).length === 0 ? fallback : undefined);
+  if (requested === undefined) return { merged: given };
+  const preset = typeof requested === 'string' ? findPreset(list, requested) : undefined;
+  if (!preset) {
+    problems.push({
+      path: `${path}.preset`, received: requested,
+      expected: `one of ${list.map((p) => `"${p.name}"`).join(', ')}`,
+      hint: typeof requested === 'string' ? suggestion(requested, list.map((p) => p.name)) : undefined,
+    });
+    return { merged: given };
+  }
+  const { preset: _drop, ...overrides } = given;
+  return { merged: mergeSetupJson(preset.values, overrides), name: preset.name };
+}
+
+function checkDisplay(raw: Json, problems: ConfigProblem[]): Display | undefined {
+  const kind = raw.kind;
+  if (kind !== 'screen' && kind !== 'headset') {
+    problems.push({ path: 'display.kind', received: kind, expected: 'one of "screen", "headset"' });
+    return undefined;
+  }
+  const before = problems.length;
+  const decl = kind === 'screen' ? screenDecl : headsetDecl;
+  const other = kind === 'screen' ? { decl: headsetDecl, where: 'headset displays ("kind": "headset")' } : { decl: screenDecl, where: 'screen displays ("kind": "screen")' };
+  const d = checkObject(raw, decl, 'display', problems, ['kind', 'preset'], other);
+  const need = (key: string, what: string): void => {
+    if (raw[key] === undefined) problems.push({ path: `display.${key}`, received: undefined, expected: what });
+  };
+  need('resolutionPx', describeExpected(decl.fields.resolutionPx));
+  need('peakLuminanceCdM2', describeExpected(decl.fields.peakLuminanceCdM2));
+  if (typeof d.peakLuminanceCdM2 === 'number' && typeof d.blackLuminanceCdM2 === 'number' && d.blackLuminanceCdM2 >= d.peakLuminanceCdM2) {
+    problems.push({ path: 'display.blackLuminanceCdM2', received: d.blackLuminanceCdM2, expected: `a luminance below peakLuminanceCdM2 (${d.peakLuminanceCdM2} cd/m²)` });
+  }
+  const resolution = d.resolutionPx as [number, number] | undefined;
+
+  if (kind === 'screen') {
+    need('viewingDistanceMm', describeExpected(screenDecl.fields.viewingDistanceMm));
+    const hasSize = raw.widthMm !== undefined || raw.heightMm !== undefined;
+    if (hasSize && raw.diagonalIn !== undefined) {
+      problems.push({ path: 'display.diagonalIn', received: raw.diagonalIn, expected: 'nothing when widthMm and heightMm are given (give one or the other)' });
+    } else if (hasSize) {
+      need('widthMm', describeExpected(screenDecl.fields.widthMm));
+      need('heightMm', describeExpected(screenDecl.fields.heightMm));
+    } else if (raw.diagonalIn === undefined) {
+      problems.push({ path: 'display.widthMm', received: undefined, expected: 'widthMm and heightMm in mm, or diagonalIn in inches' });
+    }
+    if (problems.length > before || !resolution) return undefined;
+    let widthMm = d.widthMm as number | undefined;
+    let heightMm = d.heightMm as number | undefined;
+    if (widthMm === undefined || heightMm === undefined) {
+      // Square pixels: the diagonal splits in the ratio of the resolution.
+      const diagonalPx = Math.hypot(resolution[0], resolution[1]);
+      widthMm = (inchToMm(d.diagonalIn as number) * resolution[0]) / diagonalPx;
+      heightMm = (inchToMm(d.diagonalIn as number) * resolution[1]) / diagonalPx;
+    }
+    return {
+      kind, widthMm, heightMm, resolutionPx: resolution, viewingDistanceMm: d.viewingDistanceMm as number,
+      eyeOffsetMm: d.eyeOffsetMm as [number, number], peakLuminanceCdM2: d.peakLuminanceCdM2 as number, blackLuminanceCdM2: d.blackLuminanceCdM2 as number,
+    };
+  }
+
+  need('fieldOfViewDeg', describeExpected(headsetDecl.fields.fieldOfViewDeg));
+  const hasLens = raw.lens !== undefined;
+  if (hasLens && raw.focalDistanceM !== undefined) {
+    problems.push({ path: 'display.lens', received: raw.lens, expected: 'nothing when focalDistanceM is given (give one or the other)' });
+  } else if (!hasLens && raw.focalDistanceM === undefined) {
+    problems.push({ path: 'display.focalDistanceM', received: undefined, expected: 'the virtual image distance in m (0.1 to 1000), or a lens object' });
+  }
+  const lens = hasLens ? (d.lens as { focalLengthMm?: number; screenDistanceMm?: number; eyeReliefMm: number }) : undefined;
+  if (lens) {
+    if (lens.focalLengthMm === undefined) problems.push({ path: 'display.lens.focalLengthMm', received: undefined, expected: 'a number from 5 to 500 mm' });
+    if (lens.screenDistanceMm === undefined) problems.push({ path: 'display.lens.screenDistanceMm', received: undefined, expected: 'a number from 1 to 500 mm' });
+    else if (lens.focalLengthMm !== undefined && lens.screenDistanceMm >= lens.focalLengthMm) {
+      problems.push({ path: 'display.lens.screenDistanceMm', received: lens.screenDistanceMm, expected: `a distance shorter than lens.focalLengthMm (${lens.focalLengthMm} mm), so the lens forms a virtual image` });
+    }
+  }
+  if (problems.length > before || !resolution) return undefined;
+  let focalDistanceM = d.focalDistanceM as number | undefined;
+  let resolvedLens;
+  if (lens) {
+    resolvedLens = { focalLengthMm: lens.focalLengthMm!, screenDistanceMm: lens.screenDistanceMm!, eyeReliefMm: lens.eyeReliefMm };
+    focalDistanceM = virtualImageDistanceM(resolvedLens);
+  }
+  return {
+    kind, resolutionPx: resolution, fieldOfViewDeg: d.fieldOfViewDeg as [number, number], focalDistanceM: focalDistanceM!,
+    ...(resolvedLens ? { lens: resolvedLens } : {}),
+    peakLuminanceCdM2: d.peakLuminanceCdM2 as number, blackLuminanceCdM2: d.blackLuminanceCdM2 as number,
+  };
+}
+
+/**
+ * Distance from the eye to the virtual image of a thin magnifier with the panel inside its focal
+ * length: image distance v = d·f/(f − d) on the panel's side, plus the eye relief (thin-lens law).
+ */
+export function virtualImageDistanceM(lens: { focalLengthMm: number; screenDistanceMm: number; eyeReliefMm: number }): number {
+  const f = lens.focalLengthMm;
+  const d = lens.screenDistanceMm;
+  const imageDistanceMm = (d * f) / (f - d);
+  return (imageDistanceMm + lens.eyeReliefMm) / 1000;
+}
+
+/**
+ * Validates a setup (already parsed JSON) and resolves presets and defaults.
+ * `source` names the file (or `built-in defaults`) in messages. Throws ConfigError with every problem.
+ */
+export function validateSetup(input: unknown, source: string): Setup {
+  const problems: ConfigProblem[] = [];
+  if (!isObject(input)) throw new ConfigError(source, [{ path: '(top level)', received: input, expected: 'a JSON object with display, viewer, light, gaze, frame or models' }]);
+  const sections = ['display', ...Object.keys(sectionDecls)];
+  for (const key of Object.keys(input)) {
+    if (sections.includes(key) || (topLevelExtras as readonly string[]).includes(key)) continue;
+    problems.push({ path: key, received: input[key], expected: 'no such key', hint: suggestion(key, sections) });
+  }
+  for (const key of ['display', 'viewer']) {
+    if (input[key] !== undefined && !isObject(input[key])) problems.push({ path: key, received: input[key], expected: 'an object' });
+  }
+  const displayIn = applyPreset(isObject(input.display) ? input.display : undefined, displayPresets, defaultDisplayPreset, 'display', problems);
+  const viewerIn = applyPreset(isObject(input.viewer) ? input.viewer : undefined, viewerPresets, defaultViewerPreset, 'viewer', problems);
+  const display = problems.length === 0 ? checkDisplay(displayIn.merged, problems) : undefined;
+  const { preset: _p, ...viewerFields } = viewerIn.merged;
+  const viewer = checkValue(viewerFields, sectionDecls.viewer, 'viewer', problems) as Json | undefined;
+  const light = checkValue(input.light, sectionDecls.light, 'light', problems) as Json | undefined;
+  const frame = checkValue(input.frame, sectionDecls.frame, 'frame', problems) as Json | undefined;
+  const models = checkValue(input.models, sectionDecls.models, 'models', problems) as Json | undefined;
+  let gaze: Setup['gaze'];
+  if (input.gaze !== undefined) {
+    const g = checkValue(input.gaze, sectionDecls.gaze, 'gaze', problems) as Json | undefined;
+    if (g && (g.xPx === undefined || g.yPx === undefined)) {
+      problems.push({ path: 'gaze', received: input.gaze, expected: 'both xPx and yPx' });
+    } else if (g) gaze = { xPx: g.xPx as number, yPx: g.yPx as number };
+  }
+  if (problems.length > 0 || !display || !viewer || !light || !frame || !models) throw new ConfigError(source, problems);
+  return {
+    display,
+    viewer: {
+      ageYears: viewer.ageYears as number,
+      refraction: viewer.refraction as Setup['viewer']['refraction'],
+      pupilDiameterMm: (viewer.pupilDiameterMm as number | 'auto' | undefined) ?? 'auto',
+      eyes: viewer.eyes as Setup['viewer']['eyes'],
+    },
+    light: {
+      adaptingLuminanceCdM2: (light.adaptingLuminanceCdM2 as number | 'auto' | undefined) ?? 'auto',
+      adaptingFieldDeg: light.adaptingFieldDeg as number,
+    },
+    gaze,
+    frame: { backgroundRgb: frame.backgroundRgb as [number, number, number] },
+    models: { acuity: models.acuity as Setup['models']['acuity'] },
+    presetNames: { display: displayIn.name, viewer: viewerIn.name },
+  };
+}
+
+/** Checks the gaze against the frame size; the frame is only known when it has been read. */
+export function checkGazeInFrame(setup: Setup, widthPx: number, heightPx: number, source: string): void {
+  const g = setup.gaze;
+  if (!g) return;
+  const problems: ConfigProblem[] = [];
+  if (g.xPx > widthPx - 1) problems.push({ path: 'gaze.xPx', received: g.xPx, expected: `a column inside the frame, 0 to ${widthPx - 1}` });
+  if (g.yPx > heightPx - 1) problems.push({ path: 'gaze.yPx', received: g.yPx, expected: `a row inside the frame, 0 to ${heightPx - 1}` });
+  if (problems.length) throw new ConfigError(source, problems);
+}

@@ -1,0 +1,95 @@
+/**
+ * Per-pixel viewing geometry: eccentricity from the gaze, the meridian of the visual field the pixel
+ * lies on, and the angular size of one pixel. Directions and rotations use gl-matrix.
+ */
+import { quat, vec3 } from 'gl-matrix';
+import { ARCMIN_PER_RAD, degToRad, radToDeg } from '../units.js';
+import { pixelToTan, tanToPixel, type Projection } from './projection.js';
+
+export interface ViewMap {
+  width: number;
+  height: number;
+  /** Angle between the pixel's direction and the gaze, degrees. */
+  eccentricityDeg: Float32Array;
+  /** Direction in the visual field around the gaze, degrees: 0 right, 90 up, 180 left, 270 down. */
+  meridianDeg: Float32Array;
+  /** Angular size of one pixel (square root of its solid angle), arcmin. */
+  arcminPerPx: Float32Array;
+  gazePx: [number, number];
+}
+
+/** Pixel-centre coordinates (edge coordinates + 0.5) of the gaze. */
+export function gazeDirection(p: Projection, gazePx: [number, number]): vec3 {
+  const [a, b] = pixelToTan(p, gazePx[0] + 0.5, gazePx[1] + 0.5);
+  return vec3.normalize(vec3.create(), vec3.fromValues(a, b, 1));
+}
+
+/** Rotation that takes the gaze direction to +z, so that the gaze becomes the centre of the field. */
+export function gazeRotation(gaze: vec3): quat {
+  return quat.rotationTo(quat.create(), gaze, vec3.fromValues(0, 0, 1));
+}
+
+/**
+ * Angular size of one pixel at tan-space point (a, b): the solid angle of a plane element is
+ * kx·ky·cos³α, with α the angle from the plane's normal (cos α = 1/|(a, b, 1)|).
+ */
+export function arcminPerPxAt(p: Projection, a: number, b: number): number {
+  const cosAlpha = 1 / Math.sqrt(a * a + b * b + 1);
+  return Math.sqrt(p.kxPerPx * p.kyPerPx * cosAlpha * cosAlpha * cosAlpha) * ARCMIN_PER_RAD;
+}
+
+export function computeViewMap(p: Projection, gazePx: [number, number]): ViewMap {
+  const { widthPx: width, heightPx: height } = p;
+  const n = width * height;
+  const eccentricityDeg = new Float32Array(n);
+  const meridianDeg = new Float32Array(n);
+  const arcminPerPx = new Float32Array(n);
+  const rotation = gazeRotation(gazeDirection(p, gazePx));
+  const dir = vec3.create();
+  for (let y = 0; y < height; y++) {
+    for (let x = 0; x < width; x++) {
+      const i = y * width + x;
+      const [a, b] = pixelToTan(p, x + 0.5, y + 0.5);
+      vec3.set(dir, a, b, 1);
+      vec3.normalize(dir, dir);
+      vec3.transformQuat(dir, dir, rotation);
+      eccentricityDeg[i] = radToDeg(Math.acos(Math.min(1, dir[2])));
+      const m = radToDeg(Math.atan2(dir[1], dir[0]));
+      meridianDeg[i] = m < 0 ? m + 360 : m;
+      arcminPerPx[i] = arcminPerPxAt(p, a, b);
+    }
+  }
+  return { width, height, eccentricityDeg, meridianDeg, arcminPerPx, gazePx };
+}
+
+/**
+ * Frame pixel (edge coordinates) seen at a given eccentricity and meridian from the gaze, or
+ * undefined when that direction does not meet the display plane in front of the eye.
+ */
+export function pixelAtFieldPoint(p: Projection, gazePx: [number, number], eccentricityDeg: number, meridianDeg: number): [number, number] | undefined {
+  const e = degToRad(eccentricityDeg);
+  const m = degToRad(meridianDeg);
+  const inField = vec3.fromValues(Math.sin(e) * Math.cos(m), Math.sin(e) * Math.sin(m), Math.cos(e));
+  const back = quat.invert(quat.create(), gazeRotation(gazeDirection(p, gazePx)));
+  const dir = vec3.transformQuat(vec3.create(), inField, back);
+  if (dir[2] <= 1e-6) return undefined;
+  return tanToPixel(p, dir[0] / dir[2], dir[1] / dir[2]);
+}
+
+export function isInsideFrame(p: Projection, pt: [number, number] | undefined): pt is [number, number] {
+  return pt !== undefined && pt[0] >= 0 && pt[1] >= 0 && pt[0] <= p.widthPx && pt[1] <= p.heightPx;
+}
+
+/** Horizontal and vertical field of view of the frame through the eye's straight-ahead point, degrees. */
+export function fieldOfViewDeg(p: Projection): { horizontal: number; vertical: number } {
+  const [left] = pixelToTan(p, 0, p.cyPx);
+  const [right] = pixelToTan(p, p.widthPx, p.cyPx);
+  const [, top] = pixelToTan(p, p.cxPx, 0);
+  const [, bottom] = pixelToTan(p, p.cxPx, p.heightPx);
+  // Measured along the row and column through the eye's axis when it lies inside the frame.
+  const a0 = Math.min(Math.max(0, left), right);
+  const b0 = Math.min(Math.max(0, bottom), top);
+  const h = Math.atan(right / Math.hypot(1, b0)) - Math.atan(left / Math.hypot(1, b0));
+  const v = Math.atan(top / Math.hypot(1, a0)) - Math.atan(bottom / Math.hypot(1, a0));
+  return { horizontal: radToDeg(h), vertical: radToDeg(v) };
+}

@@ -1,0 +1,232 @@
+/**
+ * The schedule: the only place that knows the order of stages. Stage functions hold the maths; this
+ * file decides what is computed, in which order, and which buffers are reused.
+ */
+import { luminancePlaneCdM2 } from './colour/luminance.js';
+import { checkGazeInFrame } from './config/validate.js';
+import type { Display, Setup } from './config/setup.js';
+import { letterLimits, smallestLetterArcmin, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
+import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
+import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
+import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
+import { applyOtf, createOtfGrid } from './optics/apply-otf.js';
+import { computeEyeState, type EyeState } from './optics/eye-state.js';
+import { diskOtf, watsonMeanMtf } from './optics/mean-mtf.js';
+import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
+import { fieldMeridians } from './retina/watson-rgc.js';
+import { computeCutoffMap } from './retina/cutoff-map.js';
+import { blurVariable, maxPyramidLevels, planLevelBlend, sigmaForCutoffPx } from './retina/variable-blur.js';
+import { clampPupilForMeanMtf } from './analysis/letter-size.js';
+import { arcminToDeg } from './units.js';
+
+/** Eccentricities listed in the acuity table, deg. */
+export const ACUITY_TABLE_ECCENTRICITIES_DEG = [0, 2, 5, 10, 20, 30, 40] as const;
+
+/** Without a frame, 'auto' adaptation assumes an 18 % grey frame (common practice: the mid-grey card). */
+export const ASSUMED_MEAN_REFLECTANCE = 0.18;
+
+export interface AcuityRow {
+  eccentricityDeg: number;
+  /** Field meridian: 'temporal' or 'nasal' for one eye; 'horizontal' for both (the better eye). */
+  meridian: string;
+  cutoffCpd: number;
+  smallestLetterArcmin: number;
+  smallestLetterPx: number;
+  /** Letter height for fluent reading (2× threshold, Whittaker & Lovie-Kitchin 1993), frame px. */
+  readingLetterPx: number;
+}
+
+export interface DerivedNumbers {
+  display: {
+    kind: Display['kind'];
+    resolutionPx: [number, number];
+    frameSizePx: [number, number];
+    pixelsPerDegreeAtGaze: number;
+    framePixelsPerDegreeAtGaze: number;
+    arcminPerFramePxAtGaze: number;
+    fieldOfViewDeg: { horizontal: number; vertical: number };
+    focalDistanceM: number;
+  };
+  gazePx: [number, number];
+  light: {
+    adaptingLuminanceCdM2: number;
+    adaptingLuminanceFrom: 'setup' | 'frame' | 'assumed 18 % grey frame';
+  };
+  eye: EyeState & { opticalCutoffCpd: number; defocusLetterArcmin: number };
+  acuity: AcuityRow[];
+}
+
+interface Context {
+  setup: Setup;
+  projection: Projection;
+  gazePx: [number, number];
+  model: AcuityModel;
+}
+
+function contextFor(setup: Setup, frameSizePx: [number, number]): Context {
+  const projection = projectionFor(setup.display, frameSizePx[0], frameSizePx[1]);
+  const gazePx: [number, number] = setup.gaze ? [setup.gaze.xPx, setup.gaze.yPx] : [Math.floor(frameSizePx[0] / 2), Math.floor(frameSizePx[1] / 2)];
+  return { setup, projection, gazePx, model: acuityModels[setup.models.acuity] };
+}
+
+/** Distance from the eye to what it focuses on: the screen point at the gaze, or a headset's virtual image. */
+function focalDistanceM(ctx: Context): number {
+  const { display } = ctx.setup;
+  if (display.kind === 'headset') return display.focalDistanceM;
+  const [a, b] = pixelToTan(ctx.projection, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
+  return (ctx.projection.planeDistanceMm * Math.hypot(a, b, 1)) / 1000;
+}
+
+function arcminAtPixel(ctx: Context, xPx: number, yPx: number): number {
+  const [a, b] = pixelToTan(ctx.projection, xPx, yPx);
+  return arcminPerPxAt(ctx.projection, a, b);
+}
+
+function acuityTable(ctx: Context, limits: LetterLimits): AcuityRow[] {
+  const rows: AcuityRow[] = [];
+  const { eyes } = ctx.setup.viewer;
+  for (const e of ACUITY_TABLE_ECCENTRICITIES_DEG) {
+    // Both sides of the horizontal meridian that the frame reaches; one side suffices for both eyes
+    // (the better eye is symmetric) and at the gaze itself.
+    for (const meridianDeg of [0, 180]) {
+      const at = pixelAtFieldPoint(ctx.projection, ctx.gazePx, e, meridianDeg);
+      if (!isInsideFrame(ctx.projection, at)) continue;
+      const name = eyes === 'both' ? 'horizontal' : fieldMeridians(meridianDeg, eyes).horizontal;
+      if (rows.some((r) => r.eccentricityDeg === e && (r.meridian === name || e === 0))) continue;
+      const cutoffCpd = ctx.model.cutoffCpd(e, meridianDeg, eyes);
+      const letterArcmin = smallestLetterArcmin(cutoffCpd, limits);
+      const arcminPerPx = arcminAtPixel(ctx, at[0], at[1]);
+      rows.push({
+        eccentricityDeg: e, meridian: name, cutoffCpd, smallestLetterArcmin: letterArcmin,
+        smallestLetterPx: letterArcmin / arcminPerPx, readingLetterPx: (READING_RESERVE * letterArcmin) / arcminPerPx,
+      });
+    }
+  }
+  return rows;
+}
+
+function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: DerivedNumbers['light']): DerivedNumbers {
+  const { setup } = ctx;
+  const eye = computeEyeState({
+    viewer: setup.viewer, adaptingLuminanceCdM2: adapting.adaptingLuminanceCdM2,
+    adaptingFieldDeg: setup.light.adaptingFieldDeg, focalDistanceM: focalDistanceM(ctx),
+  });
+  const limits = letterLimits(eye.pupilDiameterMm, eye.blurStrengthD);
+  const arcminPerFramePx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
+  const framePpd = 60 / arcminPerFramePx;
+  return {
+    display: {
+      kind: setup.display.kind,
+      resolutionPx: setup.display.resolutionPx,
+      frameSizePx,
+      pixelsPerDegreeAtGaze: framePpd * (setup.display.resolutionPx[0] / frameSizePx[0]),
+      framePixelsPerDegreeAtGaze: framePpd,
+      arcminPerFramePxAtGaze: arcminPerFramePx,
+      fieldOfViewDeg: fieldOfViewDeg(ctx.projection),
+      focalDistanceM: focalDistanceM(ctx),
+    },
+    gazePx: ctx.gazePx,
+    light: adapting,
+    eye: { ...eye, ...limits },
+    acuity: acuityTable(ctx, limits),
+  };
+}
+
+/** The derived figures of a setup without a frame (the frame is taken to be the display's resolution). */
+export function computeNumbers(setup: Setup): DerivedNumbers {
+  const size = setup.display.resolutionPx;
+  const ctx = contextFor(setup, [size[0], size[1]]);
+  const { display } = setup;
+  const given = setup.light.adaptingLuminanceCdM2;
+  const adapting: DerivedNumbers['light'] = given === 'auto'
+    ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
+    : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+  return deriveNumbers(ctx, [size[0], size[1]], adapting);
+}
+
+export interface ProofResult {
+  numbers: DerivedNumbers;
+  viewMap: ViewMap;
+  /** What reaches the photoreceptors: the frame through the eye's optics. */
+  retinalImage: LinearRgb;
+  /** What the viewer resolves. */
+  percept: LinearRgb;
+  /** Retinal cutoff frequency at each pixel, cpd. */
+  cutoffCpd: Float32Array;
+  /** Smallest legible letter height at each pixel, frame px. */
+  smallestLetterPx: Float32Array;
+  models: { acuity: AcuityModel };
+}
+
+export type StageListener = (stage: string) => void;
+
+/** Checks that the frame can be shown on the display: same aspect ratio within 1 %. */
+export function frameFitsDisplay(display: Display, widthPx: number, heightPx: number): boolean {
+  const [w, h] = display.resolutionPx;
+  return Math.abs(widthPx / heightPx / (w / h) - 1) <= 0.01;
+}
+
+/** Runs the whole proof of one frame for one eye state. `source` names the setup in error messages. */
+export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage: StageListener = () => {}): ProofResult {
+  const size: [number, number] = [frame.width, frame.height];
+  checkGazeInFrame(setup, frame.width, frame.height, source);
+  const ctx = contextFor(setup, size);
+
+  onStage('geometry');
+  const viewMap = computeViewMap(ctx.projection, ctx.gazePx);
+
+  onStage('light and eye state');
+  const given = setup.light.adaptingLuminanceCdM2;
+  const adapting: DerivedNumbers['light'] = given === 'auto'
+    ? { adaptingLuminanceCdM2: meanLuminanceInField(frame, setup, viewMap), adaptingLuminanceFrom: 'frame' }
+    : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+  const numbers = deriveNumbers(ctx, size, adapting);
+  const { eye } = numbers;
+
+  onStage('optics');
+  const ppd = numbers.display.framePixelsPerDegreeAtGaze;
+  const blurDeg = arcminToDeg(eye.blurCircleArcmin);
+  const mtfPupilMm = clampPupilForMeanMtf(eye.pupilDiameterMm);
+  const transfer = (fCpd: number): number => watsonMeanMtf(fCpd, mtfPupilMm) * diskOtf(fCpd, blurDeg);
+  const marginPx = Math.ceil(blurDeg * ppd) + 16;
+  const retinalImage = createLinearRgb(frame.width, frame.height);
+  const grid = createOtfGrid(frame.width, frame.height, transfer, { pxPerDegX: ppd, pxPerDegY: ppd, marginPx });
+  applyOtf([channelPlane(frame, 0), channelPlane(frame, 1)], [retinalImage.planes[0], retinalImage.planes[1]], grid);
+  applyOtf([channelPlane(frame, 2)], [retinalImage.planes[2]], grid);
+
+  onStage("retina: cutoff");
+  const n = frame.width * frame.height;
+  const cutoffCpd = new Float32Array(n);
+  const sigmaPx = new Float32Array(n);
+  const smallestLetterPx = new Float32Array(n);
+  const limits = { opticalCutoffCpd: eye.opticalCutoffCpd, defocusLetterArcmin: eye.defocusLetterArcmin };
+  const { eyes } = setup.viewer;
+  computeCutoffMap(viewMap, ctx.model, eyes, cutoffCpd);
+  for (let i = 0; i < n; i++) {
+    const cutoff = cutoffCpd[i];
+    const pxPerDeg = 60 / viewMap.arcminPerPx[i];
+    sigmaPx[i] = sigmaForCutoffPx(cutoff / pxPerDeg);
+    smallestLetterPx[i] = smallestLetterArcmin(cutoff, limits) / viewMap.arcminPerPx[i];
+  }
+  onStage('retina: blur');
+  const blend = planLevelBlend(sigmaPx, maxPyramidLevels(frame.width, frame.height));
+  const percept = createLinearRgb(frame.width, frame.height);
+  for (const c of [0, 1, 2] as const) blurVariable(channelPlane(retinalImage, c), blend, percept.planes[c]);
+
+  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, models: { acuity: ctx.model } };
+}
+
+/** Mean luminance (cd/m²) of the frame within the adapting field around the gaze. */
+function meanLuminanceInField(frame: LinearRgb, setup: Setup, viewMap: ViewMap): number {
+  const luminance = luminancePlaneCdM2(frame, setup.display).data;
+  const radiusDeg = setup.light.adaptingFieldDeg / 2;
+  let sum = 0;
+  let count = 0;
+  for (let i = 0; i < luminance.length; i++) {
+    if (viewMap.eccentricityDeg[i] <= radiusDeg) {
+      sum += luminance[i];
+      count++;
+    }
+  }
+  return count > 0 ? sum / count : setup.display.blackLuminanceCdM2;
+}

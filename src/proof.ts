@@ -1,0 +1,66 @@
+/**
+ * The main job as one call for every front end: frame bytes and a setup in, output files and the
+ * report out. No argv, exit codes or HTTP here.
+ */
+import type { Setup } from './config/setup.js';
+import { InputError } from './errors.js';
+import { decodeFrame } from './io/decode-frame.js';
+import { encodeRgba8Png, linearToRgba8 } from './io/encode-png.js';
+import type { OutputFile } from './io/write-outputs.js';
+import { frameFitsDisplay, runProof, type ProofResult, type StageListener } from './pipeline.js';
+import { renderCompare } from './render/compare.js';
+import { renderDetailMap } from './render/detail-map.js';
+import { projectionFor } from './geometry/projection.js';
+import { proofReport } from './report/build-report.js';
+import { CAUTION_SHORT } from './report/cautions.js';
+
+export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'report.json'] as const;
+
+export interface ProofOutputs {
+  files: OutputFile[];
+  report: Record<string, unknown>;
+  result: ProofResult;
+}
+
+/** One line describing the setup and viewer, for captions. */
+export function setupCaption(setup: Setup, result: ProofResult): string {
+  const d = setup.display;
+  const { eye, gazePx, display } = result.numbers;
+  const where = d.kind === 'screen'
+    ? `${(Math.hypot(d.widthMm, d.heightMm) / 25.4).toFixed(1)}″ ${d.resolutionPx.join('×')} screen at ${d.viewingDistanceMm} mm`
+    : `headset ${d.fieldOfViewDeg.join('°×')}° ${d.resolutionPx.join('×')}, image at ${d.focalDistanceM.toFixed(2)} m`;
+  const v = setup.viewer;
+  const refraction = v.refraction.sphereD || v.refraction.cylinderD ? `, uncorrected ${v.refraction.sphereD.toFixed(2)} / ${v.refraction.cylinderD.toFixed(2)} × ${v.refraction.axisDeg}°` : '';
+  return `${setup.presetNames.display ?? 'custom display'}: ${where}, ${display.framePixelsPerDegreeAtGaze.toFixed(1)} px/° at gaze · viewer ${setup.presetNames.viewer ?? 'custom'}: ${v.ageYears} y${refraction}, ${v.eyes === 'both' ? 'both eyes' : `${v.eyes} eye`} · pupil ${eye.pupilDiameterMm.toFixed(1)} mm, defocus ${eye.defocusD.toFixed(2)} D, blur ${eye.blurCircleArcmin.toFixed(1)}′ · gaze (${gazePx[0]}, ${gazePx[1]}) px · ${setup.models.acuity}`;
+}
+
+export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}): Promise<ProofOutputs> {
+  onStage('decoding frame');
+  const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb);
+  if (!frameFitsDisplay(setup.display, image.width, image.height)) {
+    const [w, h] = setup.display.resolutionPx;
+    throw new InputError(frameFile, `is ${image.width}×${image.height} px but the display is ${w}×${h} px (aspect ratios differ by more than 1 %)`,
+      `Export the frame at ${w}×${h} (or the same aspect ratio), or give display.resolutionPx the frame's size in the setup.`);
+  }
+  const result = runProof(image, setup, setupSource, onStage);
+
+  onStage('rendering outputs');
+  const caption = setupCaption(setup, result);
+  const percept = await encodeRgba8Png(linearToRgba8(result.percept), image.width, image.height);
+  const detail = renderDetailMap({
+    frame: image, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
+    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
+  });
+  const compare = renderCompare({
+    frame: image, percept: result.percept, projection: projectionFor(setup.display, image.width, image.height),
+    gazePx: result.numbers.gazePx, caption, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
+  });
+  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES]);
+  const files: OutputFile[] = [
+    { name: 'percept.png', bytes: percept },
+    { name: 'detail-map.png', bytes: await encodeRgba8Png(detail.rgba, detail.width, detail.height) },
+    { name: 'compare.png', bytes: await encodeRgba8Png(compare.rgba, compare.width, compare.height) },
+    { name: 'report.json', bytes: `${JSON.stringify(report, null, 2)}\n` },
+  ];
+  return { files, report, result };
+}

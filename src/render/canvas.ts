@@ -1,0 +1,68 @@
+/** Drawing surface for maps and compare images: @napi-rs/canvas with a bundled font, so text renders the same on every machine. */
+import { createRequire } from 'node:module';
+import { createCanvas, GlobalFonts, type Canvas, type SKRSContext2D } from '@napi-rs/canvas';
+
+/** Family name under which the bundled IBM Plex Sans (SIL Open Font License) is registered. */
+export const FONT_FAMILY = 'EyeproofSans';
+let fontsReady = false;
+
+function ensureFonts(): void {
+  if (fontsReady) return;
+  const require = createRequire(import.meta.url);
+  for (const weight of ['400', '600']) {
+    GlobalFonts.registerFromPath(require.resolve(`@fontsource/ibm-plex-sans/files/ibm-plex-sans-latin-${weight}-normal.woff2`), FONT_FAMILY);
+  }
+  fontsReady = true;
+}
+
+export function newCanvas(width: number, height: number): { canvas: Canvas; g: SKRSContext2D } {
+  ensureFonts();
+  const canvas = createCanvas(width, height);
+  return { canvas, g: canvas.getContext('2d') };
+}
+
+export function font(sizePx: number, bold = false): string {
+  return `${bold ? 600 : 400} ${Math.round(sizePx)}px ${FONT_FAMILY}`;
+}
+
+/** Interleaved RGBA bytes of the whole canvas. */
+export function canvasRgba(canvas: Canvas): Uint8ClampedArray {
+  return canvas.getContext('2d').getImageData(0, 0, canvas.width, canvas.height).data;
+}
+
+/** Puts RGBA bytes of the given size on the canvas at (x, y). */
+export function putRgba(g: SKRSContext2D, rgba: Uint8ClampedArray, width: number, height: number, x: number, y: number): void {
+  const data = g.createImageData(width, height);
+  data.data.set(rgba);
+  g.putImageData(data, x, y);
+}
+
+/** Text with a contrasting halo so it stays readable over any image. */
+export function haloText(g: SKRSContext2D, text: string, x: number, y: number, sizePx: number, colour = '#ffffff', halo = 'rgba(0,0,0,0.85)'): void {
+  g.font = font(sizePx, true);
+  g.lineJoin = 'round';
+  g.lineWidth = Math.max(2, sizePx / 5);
+  g.strokeStyle = halo;
+  g.strokeText(text, x, y);
+  g.fillStyle = colour;
+  g.fillText(text, x, y);
+}
+
+/** Gaze marker: a ring with a cross, in black and white so it shows on any background. */
+export function drawGazeMarker(g: SKRSContext2D, x: number, y: number, sizePx: number): void {
+  for (const [colour, width] of [['#000000', sizePx / 6 + 2], ['#ffffff', sizePx / 6]] as const) {
+    g.strokeStyle = colour;
+    g.lineWidth = width;
+    g.beginPath();
+    g.arc(x, y, sizePx, 0, 2 * Math.PI);
+    g.moveTo(x - 2 * sizePx, y);
+    g.lineTo(x - sizePx * 0.5, y);
+    g.moveTo(x + sizePx * 0.5, y);
+    g.lineTo(x + 2 * sizePx, y);
+    g.moveTo(x, y - 2 * sizePx);
+    g.lineTo(x, y - sizePx * 0.5);
+    g.moveTo(x, y + sizePx * 0.5);
+    g.lineTo(x, y + 2 * sizePx);
+    g.stroke();
+  }
+}

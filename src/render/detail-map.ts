@@ -1,0 +1,164 @@
+/**
+ * detail-map.png: the smallest legible letter height (frame px) at every place, on a log viridis scale
+ * over a faint copy of the frame, with labelled contour lines, the gaze marker and a legend in px
+ * and arcmin.
+ */
+import type { SKRSContext2D } from '@napi-rs/canvas';
+import type { LinearRgb } from '../image/plane.js';
+import { linearToRgba8 } from '../io/encode-png.js';
+import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
+import { logScale, niceLogTicks, viridisTable } from './colour-scale.js';
+
+export interface DetailMapInput {
+  frame: LinearRgb;
+  smallestLetterPx: Float32Array;
+  gazePx: [number, number];
+  arcminPerPxAtGaze: number;
+  title: string;
+}
+
+/** Share of the frame's grey shown under the colour, so the layout stays recognisable. */
+const FRAME_UNDERLAY = 0.2;
+
+export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArray; width: number; height: number } {
+  const { frame, smallestLetterPx: letter, gazePx } = input;
+  const { width, height } = frame;
+  const n = width * height;
+  let min = Infinity;
+  let max = 0;
+  for (let i = 0; i < n; i++) {
+    if (letter[i] < min) min = letter[i];
+    if (letter[i] > max) max = letter[i];
+  }
+  min = Math.max(0.5, Math.floor(min * 0.95 * 10) / 10);
+  max = Math.max(min * 2, max);
+  const scale = logScale(min, max);
+  const lut = viridisTable();
+  const frameRgba = linearToRgba8(frame);
+  const rgba = new Uint8ClampedArray(n * 4);
+  for (let i = 0; i < n; i++) {
+    const c = Math.round(scale(letter[i]) * 255) * 3;
+    const grey = (frameRgba[i * 4] + frameRgba[i * 4 + 1] + frameRgba[i * 4 + 2]) / 3;
+    for (let k = 0; k < 3; k++) rgba[i * 4 + k] = (1 - FRAME_UNDERLAY) * lut[c + k] + FRAME_UNDERLAY * grey;
+    rgba[i * 4 + 3] = 255;
+  }
+  const levels = niceLogTicks(min * 1.15, max / 1.1, 6);
+  const thickness = Math.max(1, Math.round(width / 1200));
+  for (const level of levels) drawContour(rgba, letter, width, height, level, thickness);
+
+  const text = Math.max(13, Math.round(width / 90));
+  const legendHeight = Math.round(text * 6.2);
+  const { canvas, g } = newCanvas(width, height + legendHeight);
+  putRgba(g, rgba, width, height, 0, 0);
+  for (const level of levels) {
+    const at = contourLabelPoint(letter, width, height, gazePx, level);
+    if (at) haloText(g, `${formatPx(level)} px`, at[0] + 4, at[1] - 4, text);
+  }
+  drawGazeMarker(g, gazePx[0] + 0.5, gazePx[1] + 0.5, text * 0.8);
+  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks: niceLogTicks(min, max, 8), arcminPerPx: input.arcminPerPxAtGaze, title: input.title });
+  return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
+}
+
+function formatPx(v: number): string {
+  return v >= 10 ? v.toFixed(0) : v.toFixed(1).replace(/\.0$/, '');
+}
+
+/** Marks pixels below `level` that touch a pixel at or above it, in white with a dark edge. */
+function drawContour(rgba: Uint8ClampedArray, map: Float32Array, width: number, height: number, level: number, thickness: number): void {
+  for (let y = 0; y < height; y++) {
+    for (let x = 0; x < width; x++) {
+      const i = y * width + x;
+      if (map[i] >= level) continue;
+      const edge = (x > 0 && map[i - 1] >= level) || (x < width - 1 && map[i + 1] >= level) || (y > 0 && map[i - width] >= level) || (y < height - 1 && map[i + width] >= level);
+      if (!edge) continue;
+      for (let dy = 0; dy < thickness; dy++) {
+        for (let dx = 0; dx < thickness; dx++) {
+          const xx = Math.min(width - 1, x + dx);
+          const yy = Math.min(height - 1, y + dy);
+          const j = (yy * width + xx) * 4;
+          rgba[j] = rgba[j + 1] = rgba[j + 2] = 255;
+        }
+      }
+    }
+  }
+}
+
+/** Where to label a contour: the first crossing along one of a few rays from the gaze that stays in the frame. */
+function contourLabelPoint(map: Float32Array, width: number, height: number, gaze: [number, number], level: number): [number, number] | undefined {
+  for (const angleDeg of [-25, -155, 25, 155, -90, 90]) {
+    const dx = Math.cos((angleDeg * Math.PI) / 180);
+    const dy = Math.sin((angleDeg * Math.PI) / 180);
+    for (let r = 1; ; r++) {
+      const x = Math.round(gaze[0] + dx * r);
+      const y = Math.round(gaze[1] + dy * r);
+      if (x < 0 || y < 0 || x >= width || y >= height) break;
+      if (map[y * width + x] >= level) {
+        if (x > width - 80 || y < 30) break;
+        return [x, y];
+      }
+    }
+  }
+  return undefined;
+}
+
+interface LegendLayout {
+  y: number;
+  width: number;
+  height: number;
+  text: number;
+  min: number;
+  max: number;
+  scale: (v: number) => number;
+  ticks: number[];
+  arcminPerPx: number;
+  title: string;
+}
+
+function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
+  g.fillStyle = '#15171c';
+  g.fillRect(0, l.y, l.width, l.height);
+  const pad = l.text;
+  const barX = pad;
+  const barW = Math.min(l.width - 2 * pad, l.text * 45);
+  const barY = l.y + l.text * 2.2;
+  const barH = l.text * 1.1;
+  const lut = viridisTable();
+  for (let x = 0; x < barW; x++) {
+    const c = Math.round((x / (barW - 1)) * 255) * 3;
+    g.fillStyle = `rgb(${lut[c]},${lut[c + 1]},${lut[c + 2]})`;
+    g.fillRect(barX + x, barY, 1, barH);
+  }
+  g.fillStyle = '#e8e8e8';
+  g.font = font(l.text, true);
+  g.fillText(l.title, pad, l.y + l.text * 1.5);
+  g.font = font(l.text * 0.9);
+  for (const t of l.ticks) {
+    const x = barX + l.scale(t) * (barW - 1);
+    g.fillRect(x, barY + barH, 1, l.text * 0.4);
+    const label = `${formatPx(t)} px`;
+    const arcmin = `${(t * l.arcminPerPx).toFixed(t * l.arcminPerPx >= 10 ? 0 : 1)}′`;
+    g.fillText(label, Math.min(x - g.measureText(label).width / 2, l.width - pad - g.measureText(label).width), barY + barH + l.text * 1.4);
+    g.fillStyle = '#a8b0bc';
+    g.fillText(arcmin, Math.min(x - g.measureText(arcmin).width / 2, l.width - pad - g.measureText(arcmin).width), barY + barH + l.text * 2.5);
+    g.fillStyle = '#e8e8e8';
+  }
+  const note = `Smallest legible letter height (capital letters, px of the frame; ′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′/px). White lines: contours. Ring: gaze.`;
+  const noteX = barX + barW + pad * 2;
+  if (noteX < l.width - l.text * 10) {
+    g.font = font(l.text * 0.85);
+    wrapText(g, note, noteX, barY, l.width - noteX - pad, l.text * 1.15);
+  }
+}
+
+function wrapText(g: SKRSContext2D, text: string, x: number, y: number, maxWidth: number, lineHeight: number): void {
+  let line = '';
+  for (const word of text.split(' ')) {
+    const next = line ? `${line} ${word}` : word;
+    if (g.measureText(next).width > maxWidth && line) {
+      g.fillText(line, x, y);
+      line = word;
+      y += lineHeight;
+    } else line = next;
+  }
+  if (line) g.fillText(line, x, y);
+}

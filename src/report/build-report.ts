@@ -1,0 +1,79 @@
+/** report.json: stable keys with units in their names. */
+import type { Setup } from '../config/setup.js';
+import type { FrameInfo } from '../io/decode-frame.js';
+import { CYCLES_PER_LETTER, DEFOCUS_MAR_ARCMIN_PER_MM_D, OPTICAL_THRESHOLD, READING_RESERVE } from '../analysis/letter-size.js';
+import type { DerivedNumbers, ProofResult } from '../pipeline.js';
+import { RESPONSE_AT_CUTOFF } from '../retina/variable-blur.js';
+import { CAUTIONS } from './cautions.js';
+
+export const REPORT_VERSION = 1;
+
+export interface ModelEntry {
+  stage: string;
+  name: string;
+  summary: string;
+  source: string;
+  status: 'published' | 'proposal';
+}
+
+export function modelsUsed(setup: Setup, acuity: { name: string; summary: string; source: string }): ModelEntry[] {
+  const pupil: ModelEntry[] = setup.viewer.pupilDiameterMm === 'auto'
+    ? [{ stage: 'pupil', name: 'watson-yellott-2012', summary: 'unified pupil diameter from luminance, field area, age and eyes', source: 'Watson & Yellott (2012), J Vision 12(10):12', status: 'published' }]
+    : [];
+  return [
+    ...pupil,
+    { stage: 'accommodation', name: 'hofstetter-1950-mean', summary: 'mean amplitude 18.5 − 0.30·age D', source: 'Hofstetter (1950)', status: 'published' },
+    { stage: 'defocus', name: 'residual-defocus', summary: 'demand 1/d + spherical equivalent, supplied within 0…amplitude, no lag; cylinder adds as blur strength', source: 'standard optics; blur strength after Thibos et al. (2004)', status: 'proposal' },
+    { stage: 'optics', name: 'mean-mtf-and-defocus-disk', summary: 'mean optical MTF of corrected eyes times the OTF of a uniform blur disk, spatially invariant at the gaze’s pixel scale', source: 'Watson (2013), J Vision 13(6):18; geometric blur circle', status: 'published' },
+    { stage: 'retina', name: acuity.name, summary: acuity.summary, source: acuity.source, status: 'published' },
+    { stage: 'retina', name: 'pyramid-variable-blur', summary: `Gaussian pyramid blended per pixel so detail at the local cutoff keeps ${RESPONSE_AT_CUTOFF * 100} % of its contrast`, source: 'Burt & Adelson (1983) pyramid; blending in the spirit of Geisler & Perry (1998)', status: 'proposal' },
+    { stage: 'legibility', name: 'letter-size', summary: `letter = ${CYCLES_PER_LETTER} cycles of the finer of the retinal cutoff and the frequency where the mean MTF falls to ${OPTICAL_THRESHOLD}; defocus adds 5 × ${DEFOCUS_MAR_ARCMIN_PER_MM_D}′ per mm per D in quadrature; reading needs ${READING_RESERVE}× threshold`, source: 'common practice (5′ letter ↔ 30 cpd); Smith (1982) from memory; Whittaker & Lovie-Kitchin (1993)', status: 'proposal' },
+  ];
+}
+
+const round = (v: number, digits = 4): number => Number(v.toPrecision(digits + 2));
+
+/** Rounds every number in a JSON-like value to keep the report readable and stable. */
+export function roundNumbers<T>(value: T): T {
+  if (typeof value === 'number') return (Number.isInteger(value) ? value : round(value)) as T;
+  if (Array.isArray(value)) return value.map(roundNumbers) as T;
+  if (value && typeof value === 'object') return Object.fromEntries(Object.entries(value).map(([k, v]) => [k, roundNumbers(v)])) as T;
+  return value;
+}
+
+export function numbersReport(setup: Setup, numbers: DerivedNumbers, acuity: { name: string; summary: string; source: string }): Record<string, unknown> {
+  const { display, eye } = numbers;
+  return roundNumbers({
+    reportVersion: REPORT_VERSION,
+    cautions: CAUTIONS,
+    presets: setup.presetNames,
+    display: {
+      ...display,
+      ...(setup.display.kind === 'screen'
+        ? { widthMm: setup.display.widthMm, heightMm: setup.display.heightMm, viewingDistanceMm: setup.display.viewingDistanceMm, eyeOffsetMm: setup.display.eyeOffsetMm }
+        : { lens: setup.display.lens }),
+      peakLuminanceCdM2: setup.display.peakLuminanceCdM2,
+      blackLuminanceCdM2: setup.display.blackLuminanceCdM2,
+    },
+    viewer: setup.viewer,
+    gaze: { xPx: numbers.gazePx[0], yPx: numbers.gazePx[1] },
+    light: { ...numbers.light, adaptingFieldDeg: setup.light.adaptingFieldDeg },
+    eye,
+    acuity: numbers.acuity,
+    models: modelsUsed(setup, acuity),
+  });
+}
+
+export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[]): Record<string, unknown> {
+  const base = numbersReport(setup, result.numbers, result.models.acuity);
+  let minLetter = Infinity;
+  for (const v of result.smallestLetterPx) if (v < minLetter) minLetter = v;
+  return {
+    reportVersion: base.reportVersion,
+    cautions: base.cautions,
+    frame: { file: frame.file, ...frame.info },
+    ...base,
+    detailMap: roundNumbers({ smallestLetterPxAtGaze: result.numbers.acuity[0]?.smallestLetterPx, smallestLetterPxMinimum: minLetter }),
+    outputs,
+  };
+}
