@@ -24,9 +24,9 @@ export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
   const width = Math.max(...rows.map(([k]) => k.length));
   const lines = rows.map(([k, v]) => `${k.padEnd(width)}  ${v}`);
   lines.push('', `acuity (${setup.models.acuity}) on the horizontal meridian:`);
-  lines.push('  ecc °  meridian     cutoff cpd  letter ′  letter px  reading px');
+  lines.push('  ecc °  meridian     cutoff cpd  letter ′  letter px  reading px  limited by');
   for (const r of n.acuity) {
-    lines.push(`  ${String(r.eccentricityDeg).padStart(5)}  ${r.meridian.padEnd(11)}  ${f(r.cutoffCpd, 1).padStart(10)}  ${f(r.smallestLetterArcmin, 1).padStart(8)}  ${f(r.smallestLetterPx, 1).padStart(9)}  ${f(r.readingLetterPx, 1).padStart(10)}`);
+    lines.push(`  ${String(r.eccentricityDeg).padStart(5)}  ${r.meridian.padEnd(11)}  ${f(r.cutoffCpd, 1).padStart(10)}  ${f(r.smallestLetterArcmin, 1).padStart(8)}  ${f(r.smallestLetterPx, 1).padStart(9)}  ${f(r.readingLetterPx, 1).padStart(10)}  ${r.limitedBy}`);
   }
   lines.push('', `letter = smallest legible capital height; reading = 2× that for fluent reading.`, CAUTION_SHORT, '');
   return lines.join('\n');

@@ -5,7 +5,7 @@
 import { luminancePlaneCdM2 } from './colour/luminance.js';
 import { checkGazeInFrame } from './config/validate.js';
 import type { Display, Setup } from './config/setup.js';
-import { letterLimits, smallestLetterArcmin, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
+import { letterLimits, letterSizeAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
 import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
@@ -30,10 +30,14 @@ export interface AcuityRow {
   /** Field meridian: 'temporal' or 'nasal' for one eye; 'horizontal' for both (the better eye). */
   meridian: string;
   cutoffCpd: number;
+  /** Smallest legible capital height the eye allows, arcmin. */
   smallestLetterArcmin: number;
+  /** Smallest legible capital height on this frame, px (never below the frame's own 5 px limit). */
   smallestLetterPx: number;
-  /** Letter height for fluent reading (2× threshold, Whittaker & Lovie-Kitchin 1993), frame px. */
+  /** Capital height for fluent reading (2× threshold, Whittaker & Lovie-Kitchin 1993), frame px. */
   readingLetterPx: number;
+  /** What sets the smallest letter here. */
+  limitedBy: LetterLimit;
 }
 
 export interface DerivedNumbers {
@@ -94,11 +98,10 @@ function acuityTable(ctx: Context, limits: LetterLimits): AcuityRow[] {
       const name = eyes === 'both' ? 'horizontal' : fieldMeridians(meridianDeg, eyes).horizontal;
       if (rows.some((r) => r.eccentricityDeg === e && (r.meridian === name || e === 0))) continue;
       const cutoffCpd = ctx.model.cutoffCpd(e, meridianDeg, eyes);
-      const letterArcmin = smallestLetterArcmin(cutoffCpd, limits);
-      const arcminPerPx = arcminAtPixel(ctx, at[0], at[1]);
+      const letter = letterSizeAt(cutoffCpd, limits, arcminAtPixel(ctx, at[0], at[1]));
       rows.push({
-        eccentricityDeg: e, meridian: name, cutoffCpd, smallestLetterArcmin: letterArcmin,
-        smallestLetterPx: letterArcmin / arcminPerPx, readingLetterPx: (READING_RESERVE * letterArcmin) / arcminPerPx,
+        eccentricityDeg: e, meridian: name, cutoffCpd, smallestLetterArcmin: letter.eyeArcmin,
+        smallestLetterPx: letter.px, readingLetterPx: READING_RESERVE * letter.px, limitedBy: letter.limitedBy,
       });
     }
   }
@@ -191,8 +194,7 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   const marginPx = Math.ceil(blurDeg * ppd) + 16;
   const retinalImage = createLinearRgb(frame.width, frame.height);
   const grid = createOtfGrid(frame.width, frame.height, transfer, { pxPerDegX: ppd, pxPerDegY: ppd, marginPx });
-  applyOtf([channelPlane(frame, 0), channelPlane(frame, 1)], [retinalImage.planes[0], retinalImage.planes[1]], grid);
-  applyOtf([channelPlane(frame, 2)], [retinalImage.planes[2]], grid);
+  applyOtf([0, 1, 2].map((c) => channelPlane(frame, c as 0 | 1 | 2)), retinalImage.planes, grid);
 
   onStage("retina: cutoff");
   const n = frame.width * frame.height;
@@ -206,7 +208,7 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
     const cutoff = cutoffCpd[i];
     const pxPerDeg = 60 / viewMap.arcminPerPx[i];
     sigmaPx[i] = sigmaForCutoffPx(cutoff / pxPerDeg);
-    smallestLetterPx[i] = smallestLetterArcmin(cutoff, limits) / viewMap.arcminPerPx[i];
+    smallestLetterPx[i] = letterSizeAt(cutoff, limits, viewMap.arcminPerPx[i]).px;
   }
   onStage('retina: blur');
   const blend = planLevelBlend(sigmaPx, maxPyramidLevels(frame.width, frame.height));

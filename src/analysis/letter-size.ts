@@ -50,3 +50,29 @@ export function smallestLetterArcmin(retinalCutoffCpd: number, limits: LetterLim
   const sharpLetter = (CYCLES_PER_LETTER * 60) / finestCpd;
   return Math.hypot(sharpLetter, limits.defocusLetterArcmin);
 }
+
+/**
+ * The frame itself cannot carry a letter smaller than 2.5 cycles at its Nyquist frequency of
+ * 0.5 cycles/px: 5 px of capital height (the same letter rule, applied to the pixel grid).
+ */
+export const FRAME_MIN_LETTER_PX = CYCLES_PER_LETTER / 0.5;
+
+export type LetterLimit = 'retina' | 'optics' | 'defocus' | 'display pixels';
+
+export interface LetterSize {
+  /** Smallest legible capital height the eye allows, arcmin. */
+  eyeArcmin: number;
+  /** Smallest legible capital height on this frame, px: the eye's limit, but not below FRAME_MIN_LETTER_PX. */
+  px: number;
+  limitedBy: LetterLimit;
+}
+
+export function letterSizeAt(retinalCutoffCpd: number, limits: LetterLimits, arcminPerPx: number): LetterSize {
+  const eyeArcmin = smallestLetterArcmin(retinalCutoffCpd, limits);
+  const eyePx = eyeArcmin / arcminPerPx;
+  const sharpLetter = (CYCLES_PER_LETTER * 60) / Math.min(retinalCutoffCpd, limits.opticalCutoffCpd);
+  const limitedBy: LetterLimit = eyePx < FRAME_MIN_LETTER_PX ? 'display pixels'
+    : limits.defocusLetterArcmin > sharpLetter ? 'defocus'
+      : limits.opticalCutoffCpd < retinalCutoffCpd ? 'optics' : 'retina';
+  return { eyeArcmin, px: Math.max(eyePx, FRAME_MIN_LETTER_PX), limitedBy };
+}

@@ -196,9 +196,10 @@ export function validateSetup(input: unknown, source: string): Setup {
   for (const key of ['display', 'viewer']) {
     if (input[key] !== undefined && !isObject(input[key])) problems.push({ path: key, received: input[key], expected: 'an object' });
   }
+  const beforeDisplay = problems.length;
   const displayIn = applyPreset(isObject(input.display) ? input.display : undefined, displayPresets, defaultDisplayPreset, 'display', problems);
+  const display = problems.length === beforeDisplay && (input.display === undefined || isObject(input.display)) ? checkDisplay(displayIn.merged, problems) : undefined;
   const viewerIn = applyPreset(isObject(input.viewer) ? input.viewer : undefined, viewerPresets, defaultViewerPreset, 'viewer', problems);
-  const display = problems.length === 0 ? checkDisplay(displayIn.merged, problems) : undefined;
   const { preset: _p, ...viewerFields } = viewerIn.merged;
   const viewer = checkValue(viewerFields, sectionDecls.viewer, 'viewer', problems) as Json | undefined;
   const light = checkValue(input.light, sectionDecls.light, 'light', problems) as Json | undefined;

@@ -24,9 +24,18 @@ export function gazeDirection(p: Projection, gazePx: [number, number]): vec3 {
   return vec3.normalize(vec3.create(), vec3.fromValues(a, b, 1));
 }
 
-/** Rotation that takes the gaze direction to +z, so that the gaze becomes the centre of the field. */
+/**
+ * Rotation that takes the gaze direction to +z, so that the gaze becomes the centre of the field.
+ * Built from axis and angle (atan2) rather than quat.rotationTo, which returns the identity for
+ * directions within about 0.08° of each other.
+ */
 export function gazeRotation(gaze: vec3): quat {
-  return quat.rotationTo(quat.create(), gaze, vec3.fromValues(0, 0, 1));
+  const forward = vec3.fromValues(0, 0, 1);
+  const axis = vec3.cross(vec3.create(), gaze, forward);
+  const sin = vec3.length(axis);
+  if (sin < 1e-12) return quat.create();
+  vec3.scale(axis, axis, 1 / sin);
+  return quat.setAxisAngle(quat.create(), axis, Math.atan2(sin, vec3.dot(gaze, forward)));
 }
 
 /**
@@ -53,7 +62,8 @@ export function computeViewMap(p: Projection, gazePx: [number, number]): ViewMap
       vec3.set(dir, a, b, 1);
       vec3.normalize(dir, dir);
       vec3.transformQuat(dir, dir, rotation);
-      eccentricityDeg[i] = radToDeg(Math.acos(Math.min(1, dir[2])));
+      // atan2 keeps precision near the gaze, where acos of a float32 near 1 would not.
+      eccentricityDeg[i] = radToDeg(Math.atan2(Math.sqrt(dir[0] * dir[0] + dir[1] * dir[1]), dir[2]));
       const m = radToDeg(Math.atan2(dir[1], dir[0]));
       meridianDeg[i] = m < 0 ? m + 360 : m;
       arcminPerPx[i] = arcminPerPxAt(p, a, b);

@@ -21,22 +21,32 @@ function mirrorIndex(i: number, n: number): number {
   return m < n ? m : period - 1 - m;
 }
 
-/** A transfer function sampled on the bins of one padded FFT grid, reusable for every plane of that size. */
+/** A transfer function sampled on the bins of one FFT tile, reused for every tile and plane. */
 export interface OtfGrid {
-  width: number;
-  height: number;
   fftWidth: number;
   fftHeight: number;
+  /** Border of each tile that only feeds its neighbours' pixels, px. */
+  marginPx: number;
   transfer: Float32Array;
 }
 
 /**
- * Samples the radial transfer `transferOfCpd(f)` (f in cpd) on the FFT bins for planes of the given
- * size, with room for a mirrored border of `marginPx`.
+ * FFT tile size for a plane side: the smallest power of two of at least 256 whose interior
+ * (size − 2·margin) keeps at least half of it, or the whole side with its margins when that is smaller.
+ */
+function tileSize(side: number, marginPx: number): number {
+  let size = 256;
+  while (size - 2 * marginPx < size / 2) size *= 2;
+  return Math.min(size, nextPowerOfTwo(side + 2 * marginPx));
+}
+
+/**
+ * Samples the radial transfer `transferOfCpd(f)` (f in cpd) on the bins of the FFT tile used for
+ * planes of the given size.
  */
 export function createOtfGrid(width: number, height: number, transferOfCpd: (fCpd: number) => number, sampling: OtfSampling): OtfGrid {
-  const fftWidth = nextPowerOfTwo(width + 2 * sampling.marginPx);
-  const fftHeight = nextPowerOfTwo(height + 2 * sampling.marginPx);
+  const fftWidth = tileSize(width, sampling.marginPx);
+  const fftHeight = tileSize(height, sampling.marginPx);
   // Tabulate against radial frequency once; bins are looked up with linear interpolation.
   const maxCpd = Math.sqrt(sampling.pxPerDegX ** 2 + sampling.pxPerDegY ** 2) / 2;
   const tableSize = 4096;
@@ -52,37 +62,56 @@ export function createOtfGrid(width: number, height: number, transferOfCpd: (fCp
       transfer[ky * fftWidth + kx] = table[i] + (table[i + 1] - table[i]) * (t - i);
     }
   }
-  return { width, height, fftWidth, fftHeight, transfer };
+  return { fftWidth, fftHeight, marginPx: sampling.marginPx, transfer };
+}
+
+interface TileJob {
+  src: Float32Array;
+  out: Float32Array;
+  /** Top-left of the tile's interior in the plane. */
+  x0: number;
+  y0: number;
 }
 
 /**
- * Filters one or two planes of the grid's size, writing into `outs` (may be the same arrays as the
- * inputs). Two planes share one complex transform as its real and imaginary parts.
+ * Filters planes by the grid's transfer with overlap-save tiles: each tile reads its interior plus a
+ * mirrored-at-the-frame-edge margin, is filtered by FFT, and writes back its interior. Two tiles
+ * share one complex transform as its real and imaginary parts (a real, even transfer keeps them apart).
+ * `outs[i]` receives `inputs[i]` filtered and must not alias any input.
  */
 export function applyOtf(inputs: readonly Plane[], outs: readonly Float32Array[], grid: OtfGrid): void {
-  if (inputs.length === 0 || inputs.length > 2 || outs.length !== inputs.length) throw new Error('applyOtf takes one or two planes');
-  const { width, height, fftWidth: fw, fftHeight: fh } = grid;
-  if (inputs.some((p) => p.width !== width || p.height !== height)) throw new Error('applyOtf: plane size differs from the grid');
-  const offX = Math.floor((fw - width) / 2);
-  const offY = Math.floor((fh - height) / 2);
+  if (inputs.length === 0 || outs.length !== inputs.length) throw new Error('applyOtf takes one output per input plane');
+  const { width, height } = inputs[0];
+  const { fftWidth: fw, fftHeight: fh, marginPx: m } = grid;
+  const innerW = Math.max(1, fw - 2 * m);
+  const innerH = Math.max(1, fh - 2 * m);
+  const jobs: TileJob[] = [];
+  inputs.forEach((plane, c) => {
+    for (let y0 = 0; y0 < height; y0 += innerH) for (let x0 = 0; x0 < width; x0 += innerW) jobs.push({ src: plane.data, out: outs[c], x0, y0 });
+  });
+  const plan = createFft2dPlan(fw, fh);
   const data = new Float64Array(2 * fw * fh);
   const colIndex = new Int32Array(fw);
-  for (let x = 0; x < fw; x++) colIndex[x] = mirrorIndex(x - offX, width);
-  for (let y = 0; y < fh; y++) {
-    const row = mirrorIndex(y - offY, height) * width;
-    for (let x = 0; x < fw; x++) {
-      const si = row + colIndex[x];
-      const di = 2 * (y * fw + x);
-      data[di] = inputs[0].data[si];
-      if (inputs.length === 2) data[di + 1] = inputs[1].data[si];
+  const load = (job: TileJob, part: 0 | 1): void => {
+    for (let x = 0; x < fw; x++) colIndex[x] = mirrorIndex(job.x0 - m + x, width);
+    for (let y = 0; y < fh; y++) {
+      const row = mirrorIndex(job.y0 - m + y, height) * width;
+      for (let x = 0; x < fw; x++) data[2 * (y * fw + x) + part] = job.src[row + colIndex[x]];
     }
-  }
-  filterComplex(createFft2dPlan(fw, fh), data, grid.transfer);
-  for (let y = 0; y < height; y++) {
-    for (let x = 0; x < width; x++) {
-      const si = 2 * ((y + offY) * fw + x + offX);
-      outs[0][y * width + x] = data[si];
-      if (outs.length === 2) outs[1][y * width + x] = data[si + 1];
+  };
+  const store = (job: TileJob, part: 0 | 1): void => {
+    const yEnd = Math.min(height, job.y0 + innerH);
+    const xEnd = Math.min(width, job.x0 + innerW);
+    for (let y = job.y0; y < yEnd; y++) {
+      const base = 2 * ((y - job.y0 + m) * fw + m - job.x0) + part;
+      for (let x = job.x0; x < xEnd; x++) job.out[y * width + x] = data[base + 2 * x];
     }
+  };
+  for (let j = 0; j < jobs.length; j += 2) {
+    const pair = jobs.slice(j, j + 2);
+    data.fill(0);
+    pair.forEach((job, part) => load(job, part as 0 | 1));
+    filterComplex(plan, data, grid.transfer);
+    pair.forEach((job, part) => store(job, part as 0 | 1));
   }
 }

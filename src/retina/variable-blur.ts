@@ -1,8 +1,8 @@
 /**
  * Spatially varying low-pass whose cost does not grow with the blur: a Gaussian pyramid, each level
  * expanded back to full size, blended per pixel between the two levels that bracket the wanted blur.
- * The blend is chosen so that the response at each pixel's cutoff frequency matches that of the
- * wanted Gaussian (our proposal; Geisler & Perry 1998 blend pyramid levels in the same spirit).
+ * The wanted blur is a Gaussian that keeps 5 % of the contrast at the local cutoff; the blend between
+ * levels approximates it (our proposal; Geisler & Perry 1998 blend pyramid levels in the same spirit).
  */
 import type { Plane } from '../image/plane.js';
 import { expand, levelSigmaPx, reduce } from './pyramid.js';
@@ -18,6 +18,9 @@ export function sigmaForCutoffPx(cutoffCyclesPerPx: number): number {
   return Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2) / (Math.PI * cutoffCyclesPerPx);
 }
 
+/** Where, as a fraction of the cutoff, the level blend is matched to the wanted Gaussian (our proposal). */
+export const MATCH_AT_FRACTION_OF_CUTOFF = 0.5;
+
 /** Per-pixel blend between pyramid levels: the lower level and the weight of the level above it. */
 export interface LevelBlend {
   lowerLevel: Uint8Array;
@@ -27,9 +30,11 @@ export interface LevelBlend {
 
 /**
  * For each pixel, picks levels k, k+1 with σ_k ≤ σ < σ_{k+1} and the weight t such that the blend's
- * response at the pixel's cutoff f matches the wanted Gaussian's: (1 − t)·m_k + t·m_{k+1} = r, with
- * m_j = exp(−2π²σ_j²f²). A cutoff above the frame's Nyquist (0.5 cycles/px) is matched at 0.5 instead,
- * since the frame holds nothing finer.
+ * response at half the pixel's cutoff, f = f_c/2, matches the wanted Gaussian's there:
+ * (1 − t)·m_k + t·m_{k+1} = g, with m_j = exp(−2π²σ_j²f²). Matching in the middle of the fall keeps
+ * the pass band (a blend matched at f_c itself leans on the blurrier level and loses too much below
+ * the cutoff) while detail above f_c is still removed. A match frequency above the frame's Nyquist
+ * (0.5 cycles/px) is taken at 0.5, since the frame holds nothing finer.
  */
 export function planLevelBlend(sigmaPx: Float32Array, maxLevels: number): LevelBlend {
   const sigmas = Array.from({ length: maxLevels + 1 }, (_, k) => levelSigmaPx(k));
@@ -49,7 +54,7 @@ export function planLevelBlend(sigmaPx: Float32Array, maxLevels: number): LevelB
     }
     let k = 0;
     while (sigmas[k + 1] <= s) k++;
-    const f = Math.min(Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2) / (Math.PI * s), 0.5);
+    const f = Math.min(MATCH_AT_FRACTION_OF_CUTOFF * Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2) / (Math.PI * s), 0.5);
     const target = gaussianResponse(s, f);
     const mk = gaussianResponse(sigmas[k], f);
     const mk1 = gaussianResponse(sigmas[k + 1], f);
