@@ -12,6 +12,7 @@ import { renderCompare } from './render/compare.js';
 import { renderDetailMap } from './render/detail-map.js';
 import { projectionFor } from './geometry/projection.js';
 import { proofReport } from './report/build-report.js';
+import { FRAME_MIN_LETTER_PX } from './analysis/letter-size.js';
 import { CAUTION_SHORT } from './report/cautions.js';
 
 export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'report.json'] as const;
@@ -49,7 +50,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
   const percept = await encodeRgba8Png(linearToRgba8(result.percept), image.width, image.height);
   const detail = renderDetailMap({
     frame: image, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
-    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
+    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: FRAME_MIN_LETTER_PX, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
   });
   const compare = renderCompare({
     frame: image, percept: result.percept, projection: projectionFor(setup.display, image.width, image.height),

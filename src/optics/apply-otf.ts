@@ -11,6 +11,8 @@ export interface OtfSampling {
   pxPerDegY: number;
   /** Pixels of mirrored border to add on each side; at least the filter's reach. */
   marginPx: number;
+  /** FFT tile size (a power of two); by default the smallest efficient one for the margin. */
+  tilePx?: number;
 }
 
 /** Index of pixel `i` of a mirror-extended line of length n (half-sample symmetric, period 2n). */
@@ -45,8 +47,8 @@ function tileSize(side: number, marginPx: number): number {
  * planes of the given size.
  */
 export function createOtfGrid(width: number, height: number, transferOfCpd: (fCpd: number) => number, sampling: OtfSampling): OtfGrid {
-  const fftWidth = tileSize(width, sampling.marginPx);
-  const fftHeight = tileSize(height, sampling.marginPx);
+  const fftWidth = sampling.tilePx ?? tileSize(width, sampling.marginPx);
+  const fftHeight = sampling.tilePx ?? tileSize(height, sampling.marginPx);
   // Tabulate against radial frequency once; bins are looked up with linear interpolation.
   const maxCpd = Math.sqrt(sampling.pxPerDegX ** 2 + sampling.pxPerDegY ** 2) / 2;
   const tableSize = 4096;

@@ -14,6 +14,8 @@ export interface DetailMapInput {
   smallestLetterPx: Float32Array;
   gazePx: [number, number];
   arcminPerPxAtGaze: number;
+  /** The frame's own smallest letter (px); where the map sits at it, the pixels and not the eye are the limit. */
+  frameMinLetterPx: number;
   title: string;
 }
 
@@ -30,7 +32,7 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
     if (letter[i] < min) min = letter[i];
     if (letter[i] > max) max = letter[i];
   }
-  min = Math.max(0.5, Math.floor(min * 0.95 * 10) / 10);
+  min = Math.max(0.5, min);
   max = Math.max(min * 2, max);
   const scale = logScale(min, max);
   const lut = viridisTable();
@@ -46,8 +48,8 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
   const thickness = Math.max(1, Math.round(width / 1200));
   for (const level of levels) drawContour(rgba, letter, width, height, level, thickness);
 
-  const text = Math.max(13, Math.round(width / 90));
-  const legendHeight = Math.round(text * 6.2);
+  const text = Math.max(12, Math.round(width / 90));
+  const legendHeight = Math.round(text * 8.2);
   const { canvas, g } = newCanvas(width, height + legendHeight);
   putRgba(g, rgba, width, height, 0, 0);
   for (const level of levels) {
@@ -55,7 +57,9 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
     if (at) haloText(g, `${formatPx(level)} px`, at[0] + 4, at[1] - 4, text);
   }
   drawGazeMarker(g, gazePx[0] + 0.5, gazePx[1] + 0.5, text * 0.8);
-  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks: niceLogTicks(min, max, 8), arcminPerPx: input.arcminPerPxAtGaze, title: input.title });
+  const pixelLimited = min <= input.frameMinLetterPx * 1.0001;
+  const ticks = [...new Set([Number(min.toPrecision(2)), ...niceLogTicks(min * 1.2, max, 7)])];
+  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks, arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx });
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
 }
 
@@ -112,6 +116,8 @@ interface LegendLayout {
   ticks: number[];
   arcminPerPx: number;
   title: string;
+  pixelLimited: boolean;
+  frameMinLetterPx: number;
 }
 
 function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
@@ -142,12 +148,11 @@ function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
     g.fillText(arcmin, Math.min(x - g.measureText(arcmin).width / 2, l.width - pad - g.measureText(arcmin).width), barY + barH + l.text * 2.5);
     g.fillStyle = '#e8e8e8';
   }
-  const note = `Smallest legible letter height (capital letters, px of the frame; ′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′/px). White lines: contours. Ring: gaze.`;
-  const noteX = barX + barW + pad * 2;
-  if (noteX < l.width - l.text * 10) {
-    g.font = font(l.text * 0.85);
-    wrapText(g, note, noteX, barY, l.width - noteX - pad, l.text * 1.15);
-  }
+  const floor = l.pixelLimited ? ` Where the map shows ${formatPx(l.frameMinLetterPx)} px the frame's pixels, not the eye, are the limit.` : '';
+  const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}`;
+  g.font = font(l.text * 0.8);
+  g.fillStyle = '#cfd4dc';
+  wrapText(g, note, pad, barY + barH + l.text * 3.7, l.width - 2 * pad, l.text * 1.05);
 }
 
 function wrapText(g: SKRSContext2D, text: string, x: number, y: number, maxWidth: number, lineHeight: number): void {

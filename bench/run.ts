@@ -1,0 +1,73 @@
+/**
+ * Benchmarks with ratios against a baseline measured in the same run, so numbers compare across
+ * machines: the baseline is one REDUCE + EXPAND pyramid step over a 1920×1080 plane (a fixed amount of
+ * memory-bound work). Run `npm run bench`; each case reports the median of several runs.
+ */
+import { validateSetup } from '../src/config/validate.js';
+import { createLinearRgb, type Plane } from '../src/image/plane.js';
+import { applyOtf, createOtfGrid } from '../src/optics/apply-otf.js';
+import { runProof } from '../src/pipeline.js';
+import { expand, reduce } from '../src/retina/pyramid.js';
+import { blurVariable, maxPyramidLevels, planLevelBlend } from '../src/retina/variable-blur.js';
+
+const W = 1920;
+const H = 1080;
+const runs = Number(process.env.BENCH_RUNS ?? 5);
+
+function median(xs: number[]): number {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+function time(fn: () => void): number {
+  fn();
+  const samples: number[] = [];
+  for (let i = 0; i < runs; i++) {
+    const t0 = performance.now();
+    fn();
+    samples.push(performance.now() - t0);
+  }
+  return median(samples);
+}
+
+const plane: Plane = { width: W, height: H, data: Float32Array.from({ length: W * H }, (_, i) => ((i * 2654435761) % 1000) / 1000) };
+const baselineMs = time(() => {
+  const r = reduce(plane);
+  expand(r, W, H);
+});
+
+const rows: [string, number][] = [];
+const add = (name: string, fn: () => void): void => {
+  rows.push([name, time(fn)]);
+};
+
+// Variable blur: cost must not grow with the blur (pyramid), so small and large blurs cost alike.
+for (const maxSigma of [2, 16, 128]) {
+  const sigma = Float32Array.from({ length: W * H }, (_, i) => (maxSigma * ((i % W) + 1)) / W);
+  const blend = planLevelBlend(sigma, maxPyramidLevels(W, H));
+  const out = new Float32Array(W * H);
+  add(`variable blur, one plane, σ up to ${maxSigma} px`, () => blurVariable(plane, blend, out));
+}
+
+// Optics: tiled overlap-save FFT against one whole-frame transform padded to a power of two.
+const transfer = (f: number): number => Math.exp(-((f / 10) ** 2));
+const outs = [new Float32Array(W * H), new Float32Array(W * H)];
+const tiled = createOtfGrid(W, H, transfer, { pxPerDegX: 50, pxPerDegY: 50, marginPx: 32 });
+add(`optics FFT, two planes, tiles of ${tiled.fftWidth}×${tiled.fftHeight}`, () => applyOtf([plane, plane], outs, tiled));
+const whole = createOtfGrid(W, H, transfer, { pxPerDegX: 50, pxPerDegY: 50, marginPx: 32, tilePx: 2048 });
+add('optics FFT, two planes, one 2048×2048 transform', () => applyOtf([plane, plane], outs, whole));
+
+// The whole proof of a 1920×1080 frame on the laptop preset scaled to 16:9.
+const setup = validateSetup({ display: { preset: 'laptop-14in', resolutionPx: [1920, 1080] } }, 'bench');
+const frame = createLinearRgb(W, H);
+for (const p of frame.planes) p.set(plane.data);
+add('whole proof 1920×1080 (no encoding)', () => runProof(frame, setup, 'bench'));
+
+const lines = [
+  `baseline: one REDUCE + EXPAND step over ${W}×${H} = ${baselineMs.toFixed(1)} ms (median of ${runs})`,
+  '',
+  '| case | ms | × baseline |',
+  '|---|---:|---:|',
+  ...rows.map(([name, ms]) => `| ${name} | ${ms.toFixed(0)} | ${(ms / baselineMs).toFixed(1)} |`),
+];
+process.stdout.write(`${lines.join('\n')}\n`);

@@ -1,0 +1,152 @@
+import { execFile } from 'node:child_process';
+import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import sharp from 'sharp';
+import { beforeAll, describe, expect, test } from 'vitest';
+
+const root = join(import.meta.dirname, '..');
+
+function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
+  return new Promise((resolve) => {
+    execFile(process.execPath, ['--import', 'tsx', join(root, 'cli/eyeproof.ts'), ...args], { cwd: root, maxBuffer: 1 << 24 }, (err, stdout, stderr) => {
+      resolve({ code: err ? (typeof err.code === 'number' ? err.code : 1) : 0, stdout, stderr });
+    });
+  });
+}
+
+let dir: string;
+let frame: string;
+
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), 'eyeproof-cli-'));
+  frame = join(dir, 'frame.png');
+  // 640×360: the 16:9 aspect of the desktop-27in preset, shown full-screen.
+  await sharp({ create: { width: 640, height: 360, channels: 3, background: { r: 40, g: 60, b: 90 } } })
+    .composite([{ input: Buffer.from('<svg width="200" height="40"><rect width="200" height="40" fill="#fff"/></svg>'), left: 300, top: 160 }])
+    .png().toFile(frame);
+});
+
+describe('eyeproof command', () => {
+  test('proof writes percept.png, detail-map.png, compare.png and report.json and exits 0', async () => {
+    const out = join(dir, 'out');
+    const r = await run(['proof', frame, '--setup', 'desktop-27in', '--viewer', 'age-55', '--gaze', '320,180', '--out', out]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toMatch(/optics/);
+    expect(readdirSync(out).sort()).toEqual(['compare.png', 'detail-map.png', 'percept.png', 'report.json']);
+    const report = JSON.parse(readFileSync(join(out, 'report.json'), 'utf8'));
+    expect(report.cautions.join(' ')).toMatch(/not a medical device/);
+    expect(report.gaze).toEqual({ xPx: 320, yPx: 180 });
+    // The 640-px frame fills the 2560-px panel: 4 panel pixels per frame pixel (derived).
+    expect(report.display.pixelsPerDegreeAtGaze / report.display.framePixelsPerDegreeAtGaze).toBeCloseTo(4, 4);
+    const percept = await sharp(join(out, 'percept.png')).metadata();
+    expect([percept.width, percept.height]).toEqual([640, 360]);
+  });
+
+  test('proof --json prints the report and nothing else on stdout', async () => {
+    const r = await run(['proof', frame, '--json', '--out', join(dir, 'json-out')]);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toBe('');
+    expect(JSON.parse(r.stdout).models.map((m: { stage: string }) => m.stage)).toContain('retina');
+  });
+
+  test('numbers --json for headset-wide and age-25 carries the report keys with the derived values', async () => {
+    const r = await run(['numbers', '--setup', 'headset-wide', '--viewer', 'age-25', '--json']);
+    expect(r.code).toBe(0);
+    const n = JSON.parse(r.stdout);
+    // Rectilinear buffer: (800 / tan 50°)·π/180 px/° at the centre (derived).
+    expect(n.display.pixelsPerDegreeAtGaze).toBeCloseTo(((800 / Math.tan((50 * Math.PI) / 180)) * Math.PI) / 180, 3);
+    expect(n.display.fieldOfViewDeg).toEqual({ horizontal: 100, vertical: 100 });
+    expect(n.display.focalDistanceM).toBe(1.3);
+    // Hofstetter (1950) mean: 18.5 − 0.3·25 = 11 D; 1.3 m asks for 1/1.3 D.
+    expect(n.eye.accommodationAmplitudeD).toBe(11);
+    expect(n.eye.accommodationD).toBeCloseTo(1 / 1.3, 4);
+    expect(n.eye.defocusD).toBe(0);
+    expect(typeof n.eye.pupilDiameterMm).toBe('number');
+    expect(n.eye.blurCircleArcmin).toBe(0);
+    expect(n.acuity.map((a: { eccentricityDeg: number }) => a.eccentricityDeg)).toEqual([0, 2, 5, 10, 20, 30, 40]);
+    for (const key of ['eccentricityDeg', 'meridian', 'cutoffCpd', 'smallestLetterArcmin', 'smallestLetterPx']) expect(n.acuity[3]).toHaveProperty(key);
+    // Watson (2014): 65.37 cpd at the fovea.
+    expect(n.acuity[0].cutoffCpd).toBeCloseTo(65.37, 2);
+    expect(n.models.length).toBeGreaterThan(3);
+  });
+
+  test('numbers prints a table by default', async () => {
+    const r = await run(['numbers', '--setup', 'vehicle-cluster', '--viewer', 'age-70']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/pixels per degree at gaze/);
+    expect(r.stdout).toMatch(/residual defocus +1\.25 D/);
+  });
+
+  test('presets lists every display and viewer', async () => {
+    const r = await run(['presets']);
+    for (const name of ['desktop-27in', 'laptop-14in', 'phone-6in', 'vehicle-cluster', 'headset-wide', 'headset-narrow', 'age-25', 'age-45', 'age-55', 'age-70', 'myope-2d']) expect(r.stdout).toContain(name);
+  });
+
+  test('--help shows examples', async () => {
+    const r = await run(['proof', '--help']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/Examples:/);
+  });
+
+  test('an invalid setup exits 3, names every field with its allowed range, and writes nothing', async () => {
+    const setup = join(dir, 'bad.json');
+    writeFileSync(setup, JSON.stringify({ display: { preset: 'desktop-27in', viewingDistanceMm: 1 }, viewer: { ageYears: 500 } }));
+    const out = join(dir, 'bad-out');
+    const r = await run(['proof', frame, '--setup', setup, '--out', out]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/display\.viewingDistanceMm but received 1/);
+    expect(r.stderr).toMatch(/viewer\.ageYears but received 500/);
+    expect(r.stderr).toMatch(/from 100 to 50000 mm/);
+    expect(() => readdirSync(out)).toThrow();
+  });
+
+  test('a setup that is not JSON exits 3 with the line of the error', async () => {
+    const setup = join(dir, 'broken.json');
+    writeFileSync(setup, '{\n  "display": {\n    "preset": "desktop-27in",\n  }\n}');
+    const r = await run(['numbers', '--setup', setup]);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/invalid JSON/);
+  });
+
+  test('a missing frame and a non-image frame exit 4', async () => {
+    expect((await run(['proof', join(dir, 'nope.png'), '--out', join(dir, 'o1')])).code).toBe(4);
+    const text = join(dir, 'notes.png');
+    writeFileSync(text, 'not an image');
+    const r = await run(['proof', text, '--out', join(dir, 'o2')]);
+    expect(r.code).toBe(4);
+    expect(r.stderr).toMatch(/notes\.png/);
+  });
+
+  test('a frame whose aspect ratio differs from the display exits 4 and says how to fix it', async () => {
+    const square = join(dir, 'square.png');
+    await sharp({ create: { width: 100, height: 100, channels: 3, background: '#000' } }).png().toFile(square);
+    const r = await run(['proof', square, '--setup', 'desktop-27in', '--out', join(dir, 'o3')]);
+    expect(r.code).toBe(4);
+    expect(r.stderr).toMatch(/resolutionPx/);
+  });
+
+  test('an output path that is a file exits 5; the input is never overwritten', async () => {
+    const r = await run(['proof', frame, '--out', frame]);
+    expect(r.code).toBe(5);
+    // Writing into the frame's own folder is fine: outputs have their own names.
+    const before = readFileSync(frame);
+    const r2 = await run(['proof', frame, '--out', dir]);
+    expect(r2.code).toBe(0);
+    expect(readFileSync(frame).equals(before)).toBe(true);
+    // A frame named like an output is never overwritten.
+    const named = join(dir, 'clash');
+    mkdirSync(named);
+    copyFileSync(frame, join(named, 'percept.png'));
+    const r3 = await run(['proof', join(named, 'percept.png'), '--out', named]);
+    expect(r3.code).toBe(5);
+    expect(r3.stderr).toMatch(/overwrite an input/);
+    expect(readFileSync(join(named, 'percept.png')).equals(before)).toBe(true);
+  });
+
+  test('an unknown option is a usage error, exit 2', async () => {
+    const r = await run(['proof', frame, '--colour', 'red']);
+    expect(r.code).toBe(2);
+  });
+});
