@@ -11,7 +11,7 @@ import { readInputBytes, readSetupJson } from '../src/io/read-input.js';
 import { prepareOutputFolder, writeOutputsAtomically } from '../src/io/write-outputs.js';
 import { computeNumbers } from '../src/pipeline.js';
 import { proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
-import { numbersReport } from '../src/report/build-report.js';
+import { labelSummary, numbersReport } from '../src/report/build-report.js';
 import { CAUTION_SHORT } from '../src/report/cautions.js';
 import { EXIT } from './exit-codes.js';
 import { formatNumbersTable } from './format-numbers.js';
@@ -89,19 +89,29 @@ export function buildProgram(): Command {
     .option('-o, --out <folder>', 'output folder (created if missing)', 'eyeproof-out')
     .option('-q, --quiet', 'no progress on stderr')
     .option('--json', 'print report.json on stdout and nothing else')
+    .option('-l, --labels <file>', 'labels file with the text runs to judge (default: <frame>.labels.json beside the frame, if there is one)')
     .addHelpText('after', `
 Examples:
   $ eyeproof proof sample-scenes/ferry-console.png
   $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
   $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold`)
-    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean }) => {
+    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string }) => {
       const { setup, source } = await resolveSetup(opts);
       const bytes = await readInputBytes(frame, 'the frame');
-      await prepareOutputFolder(opts.out, [frame, opts.setup ?? '', opts.viewer ?? ''].filter(Boolean), PROOF_OUTPUT_NAMES);
-      const { files, report } = await proofFrame(bytes, frame, setup, source, progress(Boolean(opts.quiet || opts.json)));
+      const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
+      const labelsFile = opts.labels ?? (existsSync(besideFrame) ? besideFrame : undefined);
+      const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file')) } : undefined;
+      await prepareOutputFolder(opts.out, [frame, opts.setup ?? '', opts.viewer ?? '', labelsFile ?? ''].filter(Boolean), PROOF_OUTPUT_NAMES);
+      const quiet = Boolean(opts.quiet || opts.json);
+      const { files, report, result } = await proofFrame(bytes, frame, setup, source, progress(quiet), labels);
       const written = await writeOutputsAtomically(opts.out, files);
       if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
-      else if (!opts.quiet) process.stderr.write(`eyeproof: wrote ${written.join(', ')}\n`);
+      if (quiet) return;
+      if (result.labels) {
+        const line = (c: ReturnType<typeof labelSummary>): string => `${c.readable} readable, ${c.legible} legible only, ${c['not legible']} not legible`;
+        process.stderr.write(`eyeproof: ${result.labels.length} labels from ${labelsFile}\n  from the gaze: ${line(labelSummary(result.labels, 'fromGaze'))}\n  when looked at: ${line(labelSummary(result.labels, 'whenFixated'))}\n`);
+      }
+      process.stderr.write(`eyeproof: wrote ${written.join(', ')}\n`);
     });
 
   addSetupOptions(program.command('numbers'))

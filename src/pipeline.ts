@@ -5,7 +5,8 @@
 import { luminancePlaneCdM2 } from './colour/luminance.js';
 import { checkGazeInFrame } from './config/validate.js';
 import type { Display, Setup } from './config/setup.js';
-import { letterLimits, letterSizeAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
+import { LETTER_LIMITS, letterLimits, letterSizeAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
+import { judgeLabel, type Label, type LabelVerdict } from './analysis/labels.js';
 import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
@@ -158,6 +159,10 @@ export interface ProofResult {
   cutoffCpd: Float32Array;
   /** Smallest legible letter height at each pixel, frame px. */
   smallestLetterPx: Float32Array;
+  /** What sets the smallest letter at each pixel: an index into LETTER_LIMITS. */
+  letterLimitIndex: Uint8Array;
+  /** Verdicts for the frame's text labels, when labels were given. */
+  labels?: LabelVerdict[];
   models: { acuity: AcuityModel };
 }
 
@@ -170,7 +175,7 @@ export function frameFitsDisplay(display: Display, widthPx: number, heightPx: nu
 }
 
 /** Runs the whole proof of one frame for one eye state. `source` names the setup in error messages. */
-export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage: StageListener = () => {}): ProofResult {
+export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage: StageListener = () => {}, labels?: readonly Label[]): ProofResult {
   const size: [number, number] = [frame.width, frame.height];
   checkGazeInFrame(setup, frame.width, frame.height, source);
   const ctx = contextFor(setup, size);
@@ -201,6 +206,7 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   const cutoffCpd = new Float32Array(n);
   const sigmaPx = new Float32Array(n);
   const smallestLetterPx = new Float32Array(n);
+  const letterLimitIndex = new Uint8Array(n);
   const limits = { opticalCutoffCpd: eye.opticalCutoffCpd, defocusLetterArcmin: eye.defocusLetterArcmin };
   const { eyes } = setup.viewer;
   computeCutoffMap(viewMap, ctx.model, eyes, cutoffCpd);
@@ -208,14 +214,27 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
     const cutoff = cutoffCpd[i];
     const pxPerDeg = 60 / viewMap.arcminPerPx[i];
     sigmaPx[i] = sigmaForCutoffPx(cutoff / pxPerDeg);
-    smallestLetterPx[i] = letterSizeAt(cutoff, limits, viewMap.arcminPerPx[i]).px;
+    const letter = letterSizeAt(cutoff, limits, viewMap.arcminPerPx[i]);
+    smallestLetterPx[i] = letter.px;
+    letterLimitIndex[i] = LETTER_LIMITS.indexOf(letter.limitedBy);
   }
   onStage('retina: blur');
   const blend = planLevelBlend(sigmaPx, maxPyramidLevels(frame.width, frame.height));
   const percept = createLinearRgb(frame.width, frame.height);
   for (const c of [0, 1, 2] as const) blurVariable(channelPlane(retinalImage, c), blend, percept.planes[c]);
 
-  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, models: { acuity: ctx.model } };
+  let verdicts: LabelVerdict[] | undefined;
+  if (labels) {
+    onStage('labels');
+    const fovealCutoffCpd = ctx.model.cutoffCpd(0, 0, eyes);
+    const maps = {
+      ...viewMap, smallestLetterPx,
+      limitAt: (i: number) => LETTER_LIMITS[letterLimitIndex[i]],
+      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, limits, arcminPerPx),
+    };
+    verdicts = labels.map((label) => judgeLabel(label, maps));
+  }
+  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, models: { acuity: ctx.model } };
 }
 
 /** Mean luminance (cd/m²) of the frame within the adapting field around the gaze. */

@@ -13,6 +13,7 @@ import { renderDetailMap } from './render/detail-map.js';
 import { projectionFor } from './geometry/projection.js';
 import { proofReport } from './report/build-report.js';
 import { FRAME_MIN_LETTER_PX } from './analysis/letter-size.js';
+import { parseLabels } from './io/read-labels.js';
 import { CAUTION_SHORT } from './report/cautions.js';
 
 export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'report.json'] as const;
@@ -35,7 +36,12 @@ export function setupCaption(setup: Setup, result: ProofResult): string {
   return `${setup.presetNames.display ?? 'custom display'}: ${where}, ${display.framePixelsPerDegreeAtGaze.toFixed(1)} px/° at gaze · viewer ${setup.presetNames.viewer ?? 'custom'}: ${v.ageYears} y${refraction}, ${v.eyes === 'both' ? 'both eyes' : `${v.eyes} eye`} · pupil ${eye.pupilDiameterMm.toFixed(1)} mm, defocus ${eye.defocusD.toFixed(2)} D, blur ${eye.blurCircleArcmin.toFixed(1)}′ · gaze (${gazePx[0]}, ${gazePx[1]}) px · ${setup.models.acuity}`;
 }
 
-export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}): Promise<ProofOutputs> {
+export interface LabelsInput {
+  file: string;
+  text: string;
+}
+
+export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}, labelsInput?: LabelsInput): Promise<ProofOutputs> {
   onStage('decoding frame');
   const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb);
   if (!frameFitsDisplay(setup.display, image.width, image.height)) {
@@ -43,20 +49,21 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
     throw new InputError(frameFile, `is ${image.width}×${image.height} px but the display is ${w}×${h} px (aspect ratios differ by more than 1 %)`,
       `Export the frame at ${w}×${h} (or the same aspect ratio), or give display.resolutionPx the frame's size in the setup.`);
   }
-  const result = runProof(image, setup, setupSource, onStage);
+  const labels = labelsInput ? parseLabels(labelsInput.text, labelsInput.file, image.width, image.height) : undefined;
+  const result = runProof(image, setup, setupSource, onStage, labels);
 
   onStage('rendering outputs');
   const caption = setupCaption(setup, result);
   const percept = await encodeRgba8Png(linearToRgba8(result.percept), image.width, image.height);
   const detail = renderDetailMap({
     frame: image, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
-    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: FRAME_MIN_LETTER_PX, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
+    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: FRAME_MIN_LETTER_PX, labels: result.labels, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
   });
   const compare = renderCompare({
     frame: image, percept: result.percept, projection: projectionFor(setup.display, image.width, image.height),
     gazePx: result.numbers.gazePx, caption, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
   });
-  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES]);
+  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file);
   const files: OutputFile[] = [
     { name: 'percept.png', bytes: percept },
     { name: 'detail-map.png', bytes: await encodeRgba8Png(detail.rgba, detail.width, detail.height) },

@@ -145,6 +145,21 @@ describe('eyeproof command', () => {
     expect(readFileSync(join(named, 'percept.png')).equals(before)).toBe(true);
   });
 
+  test('a labels file beside the frame is found and judged; a broken one exits 4', async () => {
+    const labelled = join(dir, 'labelled.png');
+    copyFileSync(frame, labelled);
+    writeFileSync(join(dir, 'labelled.labels.json'), JSON.stringify({ labels: [{ id: 'bar', text: 'WHITE BAR', boxPx: [300, 160, 200, 40], letterHeightPx: 30 }] }));
+    const r = await run(['proof', labelled, '--json', '--out', join(dir, 'labelled-out')]);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout);
+    expect(report.labels.verdicts[0].id).toBe('bar');
+    expect(['readable', 'legible', 'not legible']).toContain(report.labels.verdicts[0].fromGaze.verdict);
+    writeFileSync(join(dir, 'broken.labels.json'), JSON.stringify({ labels: [{ id: 'x', text: 'X', boxPx: [0, 0, 9999, 10], letterHeightPx: 5 }] }));
+    const bad = await run(['proof', labelled, '--labels', join(dir, 'broken.labels.json'), '--out', join(dir, 'broken-out')]);
+    expect(bad.code).toBe(4);
+    expect(bad.stderr).toMatch(/labels\[0\] \("x"\)\.boxPx/);
+  });
+
   test('an unknown option is a usage error, exit 2', async () => {
     const r = await run(['proof', frame, '--colour', 'red']);
     expect(r.code).toBe(2);

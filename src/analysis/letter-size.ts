@@ -57,7 +57,8 @@ export function smallestLetterArcmin(retinalCutoffCpd: number, limits: LetterLim
  */
 export const FRAME_MIN_LETTER_PX = CYCLES_PER_LETTER / 0.5;
 
-export type LetterLimit = 'retina' | 'optics' | 'defocus' | 'display pixels';
+export const LETTER_LIMITS = ['retina', 'optics', 'defocus', 'display pixels'] as const;
+export type LetterLimit = (typeof LETTER_LIMITS)[number];
 
 export interface LetterSize {
   /** Smallest legible capital height the eye allows, arcmin. */

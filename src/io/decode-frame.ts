@@ -43,8 +43,11 @@ export async function decodeFrame(bytes: Uint8Array, file: string, backgroundRgb
   const sixteen = meta.depth === 'ushort';
   let raw: { data: Buffer; info: OutputInfo };
   try {
-    raw = await sharp(bytes, { limitInputPixels: MAX_FRAME_PIXELS })
-      .autoOrient()
+    let pipeline = sharp(bytes, { limitInputPixels: MAX_FRAME_PIXELS }).autoOrient();
+    // 8-bit input with a profile is converted to sRGB by default; 16-bit needs the transform asked
+    // for explicitly, or it would keep the profile's code values.
+    if (sixteen && meta.icc) pipeline = pipeline.withIccProfile('srgb');
+    raw = await pipeline
       .toColourspace(sixteen ? 'rgb16' : 'srgb')
       .ensureAlpha()
       .raw(sixteen ? { depth: 'ushort' } : {})

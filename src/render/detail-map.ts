@@ -4,6 +4,8 @@
  * and arcmin.
  */
 import type { SKRSContext2D } from '@napi-rs/canvas';
+import type { LabelVerdict } from '../analysis/labels.js';
+import { READING_RESERVE } from '../analysis/letter-size.js';
 import type { LinearRgb } from '../image/plane.js';
 import { linearToRgba8 } from '../io/encode-png.js';
 import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
@@ -16,6 +18,8 @@ export interface DetailMapInput {
   arcminPerPxAtGaze: number;
   /** The frame's own smallest letter (px); where the map sits at it, the pixels and not the eye are the limit. */
   frameMinLetterPx: number;
+  /** Label verdicts to outline on the map. */
+  labels?: readonly LabelVerdict[];
   title: string;
 }
 
@@ -56,10 +60,11 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
     const at = contourLabelPoint(letter, width, height, gazePx, level);
     if (at) haloText(g, `${formatPx(level)} px`, at[0] + 4, at[1] - 4, text);
   }
+  if (input.labels) drawLabelBoxes(g, input.labels, text);
   drawGazeMarker(g, gazePx[0] + 0.5, gazePx[1] + 0.5, text * 0.8);
   const pixelLimited = min <= input.frameMinLetterPx * 1.0001;
   const ticks = [...new Set([Number(min.toPrecision(2)), ...niceLogTicks(min * 1.2, max, 7)])];
-  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks, arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx });
+  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks, arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx, hasLabels: Boolean(input.labels?.length) });
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
 }
 
@@ -118,6 +123,32 @@ interface LegendLayout {
   title: string;
   pixelLimited: boolean;
   frameMinLetterPx: number;
+  hasLabels: boolean;
+}
+
+/** Colour of boxes around labels that are too small (told apart by line weight and a tag too, not by colour alone). */
+const TOO_SMALL_COLOUR = '#ff4d8d';
+
+/**
+ * Label outlines judged on size only, as the map shows size: solid white = at least the reading
+ * reserve, dashed = legible but small, thick pink with a tag = too small. Crowding is in the report.
+ */
+function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text: number): void {
+  for (const l of labels) {
+    const [x, y, w, h] = l.boxPx;
+    const pad = 3;
+    const margin = l.fromGaze.sizeMargin;
+    const tooSmall = margin < 1;
+    g.setLineDash(!tooSmall && margin < READING_RESERVE ? [6, 4] : []);
+    g.lineWidth = tooSmall ? 3 : 1.5;
+    g.strokeStyle = tooSmall ? TOO_SMALL_COLOUR : '#ffffff';
+    g.strokeRect(x - pad, y - pad, w + 2 * pad, h + 2 * pad);
+    g.setLineDash([]);
+    if (tooSmall) {
+      const tag = l.whenFixated.sizeMargin < 1 ? '× too small even when looked at' : '× too small here';
+      haloText(g, tag, x - pad, y - pad - 4, text * 0.75, TOO_SMALL_COLOUR);
+    }
+  }
 }
 
 function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
@@ -149,7 +180,8 @@ function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
     g.fillStyle = '#e8e8e8';
   }
   const floor = l.pixelLimited ? ` Where the map shows ${formatPx(l.frameMinLetterPx)} px the frame's pixels, not the eye, are the limit.` : '';
-  const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}`;
+  const boxes = l.hasLabels ? ` Label boxes (size only): solid white = at least ${READING_RESERVE}× the smallest legible letter, dashed = legible but small, thick pink = too small. Crowding between letters is judged in report.json.` : '';
+  const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}${boxes}`;
   g.font = font(l.text * 0.8);
   g.fillStyle = '#cfd4dc';
   wrapText(g, note, pad, barY + barH + l.text * 3.7, l.width - 2 * pad, l.text * 1.05);

@@ -4,6 +4,7 @@ import type { FrameInfo } from '../io/decode-frame.js';
 import { CYCLES_PER_LETTER, DEFOCUS_MAR_ARCMIN_PER_MM_D, OPTICAL_THRESHOLD, READING_RESERVE } from '../analysis/letter-size.js';
 import type { DerivedNumbers, ProofResult } from '../pipeline.js';
 import { RESPONSE_AT_CUTOFF } from '../retina/variable-blur.js';
+import type { LabelVerdict, Verdict } from '../analysis/labels.js';
 import { CAUTIONS } from './cautions.js';
 
 export const REPORT_VERSION = 1;
@@ -64,7 +65,14 @@ export function numbersReport(setup: Setup, numbers: DerivedNumbers, acuity: { n
   });
 }
 
-export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[]): Record<string, unknown> {
+/** Counts of label verdicts, for summaries. */
+export function labelSummary(verdicts: readonly LabelVerdict[], view: 'fromGaze' | 'whenFixated'): Record<Verdict, number> {
+  const counts: Record<Verdict, number> = { readable: 0, legible: 0, 'not legible': 0 };
+  for (const v of verdicts) counts[v[view].verdict]++;
+  return counts;
+}
+
+export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[], labelsFile?: string): Record<string, unknown> {
   const base = numbersReport(setup, result.numbers, result.models.acuity);
   let minLetter = Infinity;
   for (const v of result.smallestLetterPx) if (v < minLetter) minLetter = v;
@@ -74,6 +82,15 @@ export function proofReport(setup: Setup, result: ProofResult, frame: { file: st
     frame: { file: frame.file, ...frame.info },
     ...base,
     detailMap: roundNumbers({ smallestLetterPxAtGaze: result.numbers.acuity[0]?.smallestLetterPx, smallestLetterPxMinimum: minLetter }),
+    ...(result.labels ? {
+      labels: roundNumbers({
+        file: labelsFile,
+        rule: `legible: capital height ≥ the smallest legible letter over the whole box and mean letter advance ≥ the critical spacing of crowding (Song, Levi & Pelli 2014, Eq. 14); readable: legible with ${READING_RESERVE}× size (Whittaker & Lovie-Kitchin 1993). fromGaze: without moving the eyes; whenFixated: looking straight at the label`,
+        summaryFromGaze: labelSummary(result.labels, 'fromGaze'),
+        summaryWhenFixated: labelSummary(result.labels, 'whenFixated'),
+        verdicts: result.labels,
+      }),
+    } : {}),
     outputs,
   };
 }

@@ -53,6 +53,15 @@ describe('decoding frames', () => {
     for (let c = 0; c < 3; c++) expect(Math.abs(image.planes[c as 0 | 1 | 2][0] - ref[c])).toBeLessThan(0.01);
   });
 
+  test('a 16-bit Display P3 frame decodes like its 8-bit twin, i.e. converted to sRGB (16-bit path of the ICC transform)', async () => {
+    const p3Png = await sharp(Buffer.from([200, 100, 50]), { raw: { width: 1, height: 1, channels: 3 } }).withIccProfile('p3').png().toBuffer();
+    const p3Png16 = await sharp(p3Png).keepIccProfile().toColourspace('rgb16').png().toBuffer();
+    const eight = await decodeFrame(p3Png, 'p3-8.png', [0, 0, 0]);
+    const sixteen = await decodeFrame(p3Png16, 'p3-16.png', [0, 0, 0]);
+    expect(sixteen.info.bitsPerChannel).toBe(16);
+    for (let c = 0; c < 3; c++) expect(Math.abs(sixteen.image.planes[c as 0 | 1 | 2][0] - eight.image.planes[c as 0 | 1 | 2][0])).toBeLessThan(0.005);
+  });
+
   test('JPEG and WebP frames decode (sharp)', async () => {
     for (const format of ['jpeg', 'webp'] as const) {
       const bytes = await sharp({ create: { width: 8, height: 8, channels: 3, background: { r: 128, g: 128, b: 128 } } })[format]({ quality: 100 }).toBuffer();
