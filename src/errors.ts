@@ -32,26 +32,23 @@ export function formatProblem(p: ConfigProblem): string {
   return `Expected ${p.expected} for ${p.path} but received ${received}${p.hint ? ` (${p.hint})` : ''}`;
 }
 
-/** A frame, depth map or labels file that cannot be read or understood. */
-export class InputError extends Error {
+/** An error about one file, with what went wrong and how to fix it. */
+abstract class FileError extends Error {
   readonly file: string;
   readonly fix: string;
   constructor(file: string, what: string, fix: string) {
     super(`${file}: ${what}`);
-    this.name = 'InputError';
     this.file = file;
     this.fix = fix;
   }
 }
 
+/** A frame, depth map or labels file that cannot be read or understood. */
+export class InputError extends FileError {
+  override readonly name = 'InputError';
+}
+
 /** An output folder or file that cannot be written. */
-export class OutputError extends Error {
-  readonly file: string;
-  readonly fix: string;
-  constructor(file: string, what: string, fix: string) {
-    super(`${file}: ${what}`);
-    this.name = 'OutputError';
-    this.file = file;
-    this.fix = fix;
-  }
+export class OutputError extends FileError {
+  override readonly name = 'OutputError';
 }
