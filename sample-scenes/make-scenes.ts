@@ -65,27 +65,53 @@ class Scene {
   }
 }
 
-/** Ferry bridge console, day mode, for a 27-inch 2560×1440 screen at about 70 cm. */
-async function ferryConsole(): Promise<void> {
-  const s = new Scene('ferry-console', 2560, 1440);
+/** Colours of the ferry console: a day palette and a dim night palette (dark background, amber text). */
+interface ConsolePalette {
+  background: string;
+  titleBar: string;
+  titleText: string;
+  panel: string;
+  caption: string;
+  value: string;
+  fine: string;
+  radar: string;
+  radarRing: string;
+  target: string;
+  alarm: string;
+  alarmText: string;
+}
+
+const DAY: ConsolePalette = {
+  background: '#dfe3e8', titleBar: '#1f3a5a', titleText: '#ffffff', panel: '#ffffff', caption: '#4a5563', value: '#10263f',
+  fine: '#6b7480', radar: '#0f2238', radarRing: '#3f7f6a', target: '#8ff0c0', alarm: '#ffb020', alarmText: '#1a1300',
+};
+
+const NIGHT: ConsolePalette = {
+  background: '#000000', titleBar: '#0b0b0b', titleText: '#b36b00', panel: '#0d0d0d', caption: '#6b4100', value: '#c07a10',
+  fine: '#553300', radar: '#050a08', radarRing: '#1d3b2f', target: '#2f8a5e', alarm: '#5a1500', alarmText: '#ff9a60',
+};
+
+/** Ferry bridge console for a 27-inch 2560×1440 screen at about 70 cm, in a day or night palette. */
+async function ferryConsole(name: string, c: ConsolePalette): Promise<void> {
+  const s = new Scene(name, 2560, 1440);
   const g = s.g;
-  s.rect(0, 0, 2560, 1440, '#dfe3e8');
-  s.rect(0, 0, 2560, 96, '#1f3a5a');
-  s.text('title', 'MV Harbour Wren · Bridge console', 40, 30, 40, '#ffffff', true);
-  s.text('clock', '14:32 UTC', 2330, 30, 40, '#ffffff', true);
+  s.rect(0, 0, 2560, 1440, c.background);
+  s.rect(0, 0, 2560, 96, c.titleBar);
+  s.text('title', 'MV Harbour Wren · Bridge console', 40, 30, 40, c.titleText, true);
+  s.text('clock', '14:32 UTC', 2330, 30, 40, c.titleText, true);
   // Heading and speed tiles.
-  s.rect(40, 140, 560, 300, '#ffffff', 16);
-  s.text('heading-caption', 'HEADING', 72, 170, 22, '#4a5563', true);
-  s.text('heading-value', '274°', 72, 220, 120, '#10263f', true);
-  s.rect(640, 140, 560, 300, '#ffffff', 16);
-  s.text('speed-caption', 'SPEED OVER GROUND', 672, 170, 22, '#4a5563', true);
-  s.text('speed-value', '11.4 kn', 672, 220, 120, '#10263f', true);
+  s.rect(40, 140, 560, 300, c.panel, 16);
+  s.text('heading-caption', 'HEADING', 72, 170, 22, c.caption, true);
+  s.text('heading-value', '274°', 72, 220, 120, c.value, true);
+  s.rect(640, 140, 560, 300, c.panel, 16);
+  s.text('speed-caption', 'SPEED OVER GROUND', 672, 170, 22, c.caption, true);
+  s.text('speed-value', '11.4 kn', 672, 220, 120, c.value, true);
   // Radar-like plot in the centre.
-  g.fillStyle = '#0f2238';
+  g.fillStyle = c.radar;
   g.beginPath();
   g.arc(1280, 820, 420, 0, Math.PI * 2);
   g.fill();
-  g.strokeStyle = '#3f7f6a';
+  g.strokeStyle = c.radarRing;
   g.lineWidth = 3;
   for (const r of [105, 210, 315, 420]) {
     g.beginPath();
@@ -93,34 +119,34 @@ async function ferryConsole(): Promise<void> {
     g.stroke();
   }
   for (const [x, y, id, label] of [[1420, 700, 'target-a', 'TUG 2'], [1120, 980, 'target-b', 'PILOT'], [1500, 1010, 'target-c', 'BUOY 7']] as const) {
-    g.fillStyle = '#8ff0c0';
+    g.fillStyle = c.target;
     g.beginPath();
     g.arc(x, y, 9, 0, Math.PI * 2);
     g.fill();
-    s.text(id, label, x + 16, y - 10, 18, '#8ff0c0', true);
+    s.text(id, label, x + 16, y - 10, 18, c.target, true);
   }
-  s.text('range', 'Range 3 nm', 1200, 1262, 20, '#4a5563');
+  s.text('range', 'Range 3 nm', 1200, 1262, 20, c.caption);
   // Route list on the right.
-  s.rect(1800, 140, 720, 760, '#ffffff', 16);
-  s.text('route-caption', 'ROUTE · Northquay → Saltmere', 1832, 170, 24, '#4a5563', true);
+  s.rect(1800, 140, 720, 760, c.panel, 16);
+  s.text('route-caption', 'ROUTE · Northquay → Saltmere', 1832, 170, 24, c.caption, true);
   const legs = [['WP1', 'Harbour mouth', '0.8 nm', '14:36'], ['WP2', 'Channel buoy 7', '2.1 nm', '14:44'], ['WP3', 'Outer mark', '4.6 nm', '14:57'], ['WP4', 'Saltmere approach', '9.3 nm', '15:22']];
   legs.forEach((leg, i) => {
     const y = 240 + i * 90;
-    s.text(`leg-${i + 1}-id`, leg[0], 1832, y, 28, '#10263f', true);
-    s.text(`leg-${i + 1}-name`, leg[1], 1920, y, 28, '#10263f');
-    s.text(`leg-${i + 1}-eta`, `${leg[2]} · ETA ${leg[3]}`, 1920, y + 40, 18, '#4a5563');
+    s.text(`leg-${i + 1}-id`, leg[0], 1832, y, 28, c.value, true);
+    s.text(`leg-${i + 1}-name`, leg[1], 1920, y, 28, c.value);
+    s.text(`leg-${i + 1}-eta`, `${leg[2]} · ETA ${leg[3]}`, 1920, y + 40, 18, c.caption);
   });
-  s.text('route-note', 'Tide +1.2 m at Saltmere, falling', 1832, 640, 16, '#4a5563');
-  s.text('route-fine-print', 'Chart datum LAT · soundings in metres · check notices before departure', 1832, 700, 12, '#6b7480');
+  s.text('route-note', 'Tide +1.2 m at Saltmere, falling', 1832, 640, 16, c.caption);
+  s.text('route-fine-print', 'Chart datum LAT · soundings in metres · check notices before departure', 1832, 700, 12, c.fine);
   // Alarm chip at the lower left and engine figures.
-  s.rect(40, 1180, 640, 100, '#ffb020', 14);
-  s.text('alarm', '⚠ Bilge pump 2 running 4 min', 72, 1212, 32, '#1a1300', true);
-  s.rect(40, 500, 1160, 200, '#ffffff', 16);
-  s.text('engine-caption', 'ENGINES', 72, 530, 22, '#4a5563', true);
-  s.text('engine-port', 'Port 1420 rpm · 78 °C', 72, 580, 30, '#10263f');
-  s.text('engine-stbd', 'Stbd 1415 rpm · 79 °C', 72, 630, 30, '#10263f');
-  s.text('engine-fuel', 'Fuel 61 % · 212 L/h', 640, 580, 30, '#10263f');
-  s.text('status-bar', 'AIS OK · GPS 2 OK · Gyro OK · Autopilot standby · Log 11.2 kn', 40, 1390, 14, '#4a5563');
+  s.rect(40, 1180, 640, 100, c.alarm, 14);
+  s.text('alarm', '⚠ Bilge pump 2 running 4 min', 72, 1212, 32, c.alarmText, true);
+  s.rect(40, 500, 1160, 200, c.panel, 16);
+  s.text('engine-caption', 'ENGINES', 72, 530, 22, c.caption, true);
+  s.text('engine-port', 'Port 1420 rpm · 78 °C', 72, 580, 30, c.value);
+  s.text('engine-stbd', 'Stbd 1415 rpm · 79 °C', 72, 630, 30, c.value);
+  s.text('engine-fuel', 'Fuel 61 % · 212 L/h', 640, 580, 30, c.value);
+  s.text('status-bar', 'AIS OK · GPS 2 OK · Gyro OK · Autopilot standby · Log 11.2 kn', 40, 1390, 14, c.caption);
   await s.save();
 }
 
@@ -210,7 +236,8 @@ async function calibrationChart(): Promise<void> {
   await s.save();
 }
 
-await ferryConsole();
+await ferryConsole('ferry-console', DAY);
+await ferryConsole('ferry-console-night', NIGHT);
 await pickerHeadset();
 await calibrationChart();
 process.stderr.write('sample scenes written\n');

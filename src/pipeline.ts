@@ -16,7 +16,12 @@ import { diskOtf, watsonMeanMtf } from './optics/mean-mtf.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
 import { fieldMeridians } from './retina/watson-rgc.js';
 import { computeCutoffMap } from './retina/cutoff-map.js';
-import { blurVariable, maxPyramidLevels, planLevelBlend, sigmaForCutoffPx } from './retina/variable-blur.js';
+import { chromaticCutoffCpd } from './retina/colour-loss.js';
+import { BLIND_SPOT, blindSpotCentreDeg, blindSpotDistance } from './retina/blind-spot.js';
+import { lightState, type LightState } from './retina/light-level.js';
+import { computePercept } from './retina/percept.js';
+import { rodCutoffCpd, SCOTOPIC_PER_PHOTOPIC_WHITE } from './retina/rod-vision.js';
+import { scotopicOfLinearSrgb } from './colour/scotopic.js';
 import { clampPupilForMeanMtf } from './analysis/letter-size.js';
 import { arcminToDeg } from './units.js';
 
@@ -56,7 +61,9 @@ export interface DerivedNumbers {
   light: {
     adaptingLuminanceCdM2: number;
     adaptingLuminanceFrom: 'setup' | 'frame' | 'assumed 18 % grey frame';
-  };
+  } & LightState;
+  /** The blind spot of the viewing eye in the field around the gaze; absent with both eyes. */
+  blindSpot?: { eye: 'right' | 'left'; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number; centrePx?: [number, number] };
   eye: EyeState & { opticalCutoffCpd: number; defocusLetterArcmin: number };
   acuity: AcuityRow[];
 }
@@ -87,7 +94,12 @@ function arcminAtPixel(ctx: Context, xPx: number, yPx: number): number {
   return arcminPerPxAt(ctx.projection, a, b);
 }
 
-function acuityTable(ctx: Context, limits: LetterLimits): AcuityRow[] {
+/** Effective retinal cutoff at a light level: cone and rod cutoffs weighted by the CIE 191 m (our proposal). */
+function mixedCutoffCpd(coneCpd: number, eccentricityDeg: number, coneShare: number): number {
+  return coneShare >= 1 ? coneCpd : coneShare * coneCpd + (1 - coneShare) * rodCutoffCpd(eccentricityDeg, coneCpd);
+}
+
+function acuityTable(ctx: Context, limits: LetterLimits, coneShare: number): AcuityRow[] {
   const rows: AcuityRow[] = [];
   const { eyes } = ctx.setup.viewer;
   for (const e of ACUITY_TABLE_ECCENTRICITIES_DEG) {
@@ -98,8 +110,8 @@ function acuityTable(ctx: Context, limits: LetterLimits): AcuityRow[] {
       if (!isInsideFrame(ctx.projection, at)) continue;
       const name = eyes === 'both' ? 'horizontal' : fieldMeridians(meridianDeg, eyes).horizontal;
       if (rows.some((r) => r.eccentricityDeg === e && (r.meridian === name || e === 0))) continue;
-      const cutoffCpd = ctx.model.cutoffCpd(e, meridianDeg, eyes);
-      const letter = letterSizeAt(cutoffCpd, limits, arcminAtPixel(ctx, at[0], at[1]));
+      const cutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(e, meridianDeg, eyes), e, coneShare);
+      const letter = letterSizeAt(cutoffCpd, limits, arcminAtPixel(ctx, at[0], at[1]), coneShare < 0.5);
       rows.push({
         eccentricityDeg: e, meridian: name, cutoffCpd, smallestLetterArcmin: letter.eyeArcmin,
         smallestLetterPx: letter.px, readingLetterPx: READING_RESERVE * letter.px, limitedBy: letter.limitedBy,
@@ -109,13 +121,29 @@ function acuityTable(ctx: Context, limits: LetterLimits): AcuityRow[] {
   return rows;
 }
 
-function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: DerivedNumbers['light']): DerivedNumbers {
+type Adapting = Pick<DerivedNumbers['light'], 'adaptingLuminanceCdM2' | 'adaptingLuminanceFrom'>;
+
+function blindSpotFor(ctx: Context): DerivedNumbers['blindSpot'] {
+  const { eyes } = ctx.setup.viewer;
+  const centre = blindSpotCentreDeg(eyes);
+  if (!centre || eyes === 'both') return undefined;
+  const ecc = Math.hypot(centre[0], centre[1]);
+  const meridian = (Math.atan2(centre[1], centre[0]) * 180) / Math.PI;
+  const at = pixelAtFieldPoint(ctx.projection, ctx.gazePx, ecc, meridian);
+  return {
+    eye: eyes, centreFieldDeg: centre, widthDeg: BLIND_SPOT.widthDeg, heightDeg: BLIND_SPOT.heightDeg,
+    ...(isInsideFrame(ctx.projection, at) ? { centrePx: [Math.round(at[0]), Math.round(at[1])] as [number, number] } : {}),
+  };
+}
+
+function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Adapting, scotopicRatio: number): DerivedNumbers {
   const { setup } = ctx;
   const eye = computeEyeState({
     viewer: setup.viewer, adaptingLuminanceCdM2: adapting.adaptingLuminanceCdM2,
     adaptingFieldDeg: setup.light.adaptingFieldDeg, focalDistanceM: focalDistanceM(ctx),
   });
   const limits = letterLimits(eye.pupilDiameterMm, eye.blurStrengthD);
+  const light = lightState(adapting.adaptingLuminanceCdM2, scotopicRatio);
   const arcminPerFramePx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
   const framePpd = 60 / arcminPerFramePx;
   return {
@@ -130,9 +158,10 @@ function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: De
       focalDistanceM: focalDistanceM(ctx),
     },
     gazePx: ctx.gazePx,
-    light: adapting,
+    light: { ...adapting, ...light },
+    ...(blindSpotFor(ctx) ? { blindSpot: blindSpotFor(ctx) } : {}),
     eye: { ...eye, ...limits },
-    acuity: acuityTable(ctx, limits),
+    acuity: acuityTable(ctx, limits, light.mesopicFactorM),
   };
 }
 
@@ -142,10 +171,11 @@ export function computeNumbers(setup: Setup): DerivedNumbers {
   const ctx = contextFor(setup, [size[0], size[1]]);
   const { display } = setup;
   const given = setup.light.adaptingLuminanceCdM2;
-  const adapting: DerivedNumbers['light'] = given === 'auto'
+  const adapting: Adapting = given === 'auto'
     ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
     : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
-  return deriveNumbers(ctx, [size[0], size[1]], adapting);
+  // Without a frame the light is taken to have the colour of the display's white (D65).
+  return deriveNumbers(ctx, [size[0], size[1]], adapting, SCOTOPIC_PER_PHOTOPIC_WHITE);
 }
 
 export interface ProofResult {
@@ -185,10 +215,11 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
 
   onStage('light and eye state');
   const given = setup.light.adaptingLuminanceCdM2;
-  const adapting: DerivedNumbers['light'] = given === 'auto'
-    ? { adaptingLuminanceCdM2: meanLuminanceInField(frame, setup, viewMap), adaptingLuminanceFrom: 'frame' }
+  const field = luminanceInField(frame, setup, viewMap);
+  const adapting: Adapting = given === 'auto'
+    ? { adaptingLuminanceCdM2: field.photopicCdM2, adaptingLuminanceFrom: 'frame' }
     : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
-  const numbers = deriveNumbers(ctx, size, adapting);
+  const numbers = deriveNumbers(ctx, size, adapting, field.scotopicToPhotopic);
   const { eye } = numbers;
 
   onStage('optics');
@@ -201,53 +232,73 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   const grid = createOtfGrid(frame.width, frame.height, transfer, { pxPerDegX: ppd, pxPerDegY: ppd, marginPx });
   applyOtf([0, 1, 2].map((c) => channelPlane(frame, c as 0 | 1 | 2)), retinalImage.planes, grid);
 
-  onStage("retina: cutoff");
+  onStage('retina: cutoffs');
   const n = frame.width * frame.height;
+  const { eyes } = setup.viewer;
+  const coneShare = numbers.light.mesopicFactorM;
+  const limits = { opticalCutoffCpd: eye.opticalCutoffCpd, defocusLetterArcmin: eye.defocusLetterArcmin };
+  const cutoffs = { achromaticCpd: new Float32Array(n), redGreenCpd: new Float32Array(n), blueYellowCpd: new Float32Array(n), rodCpd: new Float32Array(n) };
+  computeCutoffMap(viewMap, ctx.model, eyes, cutoffs.achromaticCpd);
   const cutoffCpd = new Float32Array(n);
-  const sigmaPx = new Float32Array(n);
   const smallestLetterPx = new Float32Array(n);
   const letterLimitIndex = new Uint8Array(n);
-  const limits = { opticalCutoffCpd: eye.opticalCutoffCpd, defocusLetterArcmin: eye.defocusLetterArcmin };
-  const { eyes } = setup.viewer;
-  computeCutoffMap(viewMap, ctx.model, eyes, cutoffCpd);
+  const blindCentre = blindSpotCentreDeg(eyes);
+  const seen = blindCentre ? new Float32Array(n) : undefined;
+  const colourLoss = setup.models.colourLoss;
   for (let i = 0; i < n; i++) {
-    const cutoff = cutoffCpd[i];
-    const pxPerDeg = 60 / viewMap.arcminPerPx[i];
-    sigmaPx[i] = sigmaForCutoffPx(cutoff / pxPerDeg);
-    const letter = letterSizeAt(cutoff, limits, viewMap.arcminPerPx[i]);
+    const ecc = viewMap.eccentricityDeg[i];
+    const cone = cutoffs.achromaticCpd[i];
+    cutoffs.redGreenCpd[i] = chromaticCutoffCpd('red-green', ecc, colourLoss, cone);
+    cutoffs.blueYellowCpd[i] = chromaticCutoffCpd('blue-yellow', ecc, colourLoss, cone);
+    cutoffs.rodCpd[i] = rodCutoffCpd(ecc, cone);
+    cutoffCpd[i] = mixedCutoffCpd(cone, ecc, coneShare);
+    const letter = letterSizeAt(cutoffCpd[i], limits, viewMap.arcminPerPx[i], coneShare < 0.5);
     smallestLetterPx[i] = letter.px;
     letterLimitIndex[i] = LETTER_LIMITS.indexOf(letter.limitedBy);
+    if (seen && blindCentre) {
+      // Soft edge over ±5 % of the ellipse so the fill blends in.
+      const d = blindSpotDistance(ecc, viewMap.meridianDeg[i], blindCentre);
+      seen[i] = Math.min(1, Math.max(0, (d - 0.95) / 0.1));
+      if (d < 1) {
+        smallestLetterPx[i] = Infinity;
+        letterLimitIndex[i] = LETTER_LIMITS.indexOf('blind spot');
+      }
+    }
   }
-  onStage('retina: blur');
-  const blend = planLevelBlend(sigmaPx, maxPyramidLevels(frame.width, frame.height));
-  const percept = createLinearRgb(frame.width, frame.height);
-  for (const c of [0, 1, 2] as const) blurVariable(channelPlane(retinalImage, c), blend, percept.planes[c]);
+  const percept = computePercept({ retinal: retinalImage, cutoffs, arcminPerPx: viewMap.arcminPerPx, coneShare, seen }, onStage);
 
   let verdicts: LabelVerdict[] | undefined;
   if (labels) {
     onStage('labels');
-    const fovealCutoffCpd = ctx.model.cutoffCpd(0, 0, eyes);
+    const fovealCutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(0, 0, eyes), 0, coneShare);
     const maps = {
       ...viewMap, smallestLetterPx,
       limitAt: (i: number) => LETTER_LIMITS[letterLimitIndex[i]],
-      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, limits, arcminPerPx),
+      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, limits, arcminPerPx, coneShare < 0.5),
     };
     verdicts = labels.map((label) => judgeLabel(label, maps));
   }
   return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, models: { acuity: ctx.model } };
 }
 
-/** Mean luminance (cd/m²) of the frame within the adapting field around the gaze. */
-function meanLuminanceInField(frame: LinearRgb, setup: Setup, viewMap: ViewMap): number {
+/**
+ * Mean photopic luminance (cd/m²) of the frame within the adapting field around the gaze, and its
+ * scotopic/photopic ratio (Larson et al. 1997 for the pixels; the black level taken as D65).
+ */
+function luminanceInField(frame: LinearRgb, setup: Setup, viewMap: ViewMap): { photopicCdM2: number; scotopicToPhotopic: number } {
+  const { peakLuminanceCdM2: peak, blackLuminanceCdM2: black } = setup.display;
   const luminance = luminancePlaneCdM2(frame, setup.display).data;
+  const [r, g, b] = frame.planes;
   const radiusDeg = setup.light.adaptingFieldDeg / 2;
-  let sum = 0;
+  let photopic = 0;
+  let scotopic = 0;
   let count = 0;
   for (let i = 0; i < luminance.length; i++) {
-    if (viewMap.eccentricityDeg[i] <= radiusDeg) {
-      sum += luminance[i];
-      count++;
-    }
+    if (viewMap.eccentricityDeg[i] > radiusDeg) continue;
+    photopic += luminance[i];
+    scotopic += scotopicOfLinearSrgb(r[i], g[i], b[i]) * (peak - black) + black * SCOTOPIC_PER_PHOTOPIC_WHITE;
+    count++;
   }
-  return count > 0 ? sum / count : setup.display.blackLuminanceCdM2;
+  if (count === 0 || photopic <= 0) return { photopicCdM2: black, scotopicToPhotopic: SCOTOPIC_PER_PHOTOPIC_WHITE };
+  return { photopicCdM2: photopic / count, scotopicToPhotopic: scotopic / photopic };
 }

@@ -61,7 +61,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
   });
   const compare = renderCompare({
     frame: image, percept: result.percept, projection: projectionFor(setup.display, image.width, image.height),
-    gazePx: result.numbers.gazePx, caption, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
+    gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
   });
   const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file);
   const files: OutputFile[] = [

@@ -24,11 +24,11 @@ export type Verdict = 'readable' | 'legible' | 'not legible';
 export interface Judgement {
   verdict: Verdict;
   /** What limits the label: its size (and what sets the size limit there) or its spacing. */
-  limitedBy: 'spacing' | `size (${LetterLimit})`;
+  limitedBy: 'spacing' | 'blind spot' | `size (${LetterLimit})`;
   /** Eccentricity used, deg: the box centre's from the gaze, or 0 when the label is looked at. */
   eccentricityDeg: number;
-  /** Smallest legible capital over the box, frame px. */
-  smallestLetterPx: number;
+  /** Smallest legible capital over the box, frame px; null where part of the box is in the blind spot. */
+  smallestLetterPx: number | null;
   /** letterHeightPx / smallestLetterPx: 1 is the threshold, 2 is enough for fluent reading. */
   sizeMargin: number;
   /** Critical spacing of crowding, arcmin (Song, Levi & Pelli 2014, Eq. 14). */
@@ -70,14 +70,15 @@ export function criticalSpacingDeg(eccentricityDeg: number): number {
 
 function judge(label: Label, smallestLetterPx: number, limit: LetterLimit, eccentricityDeg: number, letterAdvanceArcmin: number, characters: number): Judgement {
   const criticalSpacingArcmin = criticalSpacingDeg(eccentricityDeg) * 60;
-  const sizeMargin = label.letterHeightPx / smallestLetterPx;
+  // An infinite smallest letter is the blind spot: no size is legible there.
+  const sizeMargin = Number.isFinite(smallestLetterPx) ? label.letterHeightPx / smallestLetterPx : 0;
   // A single character cannot crowd itself.
   const spacingMargin = characters > 1 ? letterAdvanceArcmin / criticalSpacingArcmin : null;
   const legible = sizeMargin >= 1 && (spacingMargin === null || spacingMargin >= 1);
   return {
     verdict: legible && sizeMargin >= READING_RESERVE ? 'readable' : legible ? 'legible' : 'not legible',
-    limitedBy: spacingMargin !== null && spacingMargin < sizeMargin ? 'spacing' : `size (${limit})`,
-    eccentricityDeg, smallestLetterPx, sizeMargin, criticalSpacingArcmin, spacingMargin,
+    limitedBy: limit === 'blind spot' ? 'blind spot' : spacingMargin !== null && spacingMargin < sizeMargin ? 'spacing' : `size (${limit})`,
+    eccentricityDeg, smallestLetterPx: Number.isFinite(smallestLetterPx) ? smallestLetterPx : null, sizeMargin, criticalSpacingArcmin, spacingMargin,
   };
 }
 

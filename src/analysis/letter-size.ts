@@ -57,7 +57,7 @@ export function smallestLetterArcmin(retinalCutoffCpd: number, limits: LetterLim
  */
 export const FRAME_MIN_LETTER_PX = CYCLES_PER_LETTER / 0.5;
 
-export const LETTER_LIMITS = ['retina', 'optics', 'defocus', 'display pixels'] as const;
+export const LETTER_LIMITS = ['retina', 'optics', 'defocus', 'display pixels', 'rod vision', 'blind spot'] as const;
 export type LetterLimit = (typeof LETTER_LIMITS)[number];
 
 export interface LetterSize {
@@ -68,12 +68,13 @@ export interface LetterSize {
   limitedBy: LetterLimit;
 }
 
-export function letterSizeAt(retinalCutoffCpd: number, limits: LetterLimits, arcminPerPx: number): LetterSize {
+/** `rodDominated`: the retinal cutoff is mostly that of rods (dim light), named as such. */
+export function letterSizeAt(retinalCutoffCpd: number, limits: LetterLimits, arcminPerPx: number, rodDominated = false): LetterSize {
   const eyeArcmin = smallestLetterArcmin(retinalCutoffCpd, limits);
   const eyePx = eyeArcmin / arcminPerPx;
   const sharpLetter = (CYCLES_PER_LETTER * 60) / Math.min(retinalCutoffCpd, limits.opticalCutoffCpd);
   const limitedBy: LetterLimit = eyePx < FRAME_MIN_LETTER_PX ? 'display pixels'
     : limits.defocusLetterArcmin > sharpLetter ? 'defocus'
-      : limits.opticalCutoffCpd < retinalCutoffCpd ? 'optics' : 'retina';
+      : limits.opticalCutoffCpd < retinalCutoffCpd ? 'optics' : rodDominated ? 'rod vision' : 'retina';
   return { eyeArcmin, px: Math.max(eyePx, FRAME_MIN_LETTER_PX), limitedBy };
 }

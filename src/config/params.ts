@@ -129,6 +129,28 @@ export const modelsDecl: ObjectDecl = {
       type: 'enum', values: ['rgc-sampling', 'contrast-threshold'], default: 'rgc-sampling',
       doc: 'rgc-sampling: Nyquist limit of one midget ganglion-cell lattice (Watson 2014); contrast-threshold: cutoff of the Geisler & Perry (1998) threshold model.',
     },
+    colourLoss: {
+      type: 'object',
+      doc: 'Our proposal for the loss of colour resolution with eccentricity: cutoff f0·2.3/(scale·e + 2.3) per opponent channel.',
+      fields: {
+        redGreenFovealCutoffCpd: {
+          type: 'number', unit: 'cpd', minimum: 1, maximum: 60, default: 11,
+          doc: 'Finest red–green (isoluminant) detail resolved at the gaze.', source: 'about 11 cpd for isoluminant red–green gratings, Mullen (1985), from memory',
+        },
+        blueYellowFovealCutoffCpd: {
+          type: 'number', unit: 'cpd', minimum: 1, maximum: 60, default: 10,
+          doc: 'Finest blue–yellow detail resolved near the gaze (outside the S-cone-free centre).', source: 'about 10 cpd, Mullen (1985), from memory',
+        },
+        redGreenEccentricityScale: {
+          type: 'number', unit: '', minimum: 0.5, maximum: 5, default: 2,
+          doc: 'How much faster than luminance red–green resolution falls with eccentricity.', source: 'about twice as steeply as luminance, Mullen (1991)',
+        },
+        blueYellowEccentricityScale: {
+          type: 'number', unit: '', minimum: 0.5, maximum: 5, default: 1,
+          doc: 'How much faster than luminance blue–yellow resolution falls with eccentricity.', source: 'about like luminance, Mullen & Kingdom (2002)',
+        },
+      },
+    },
   },
 };
 

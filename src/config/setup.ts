@@ -59,7 +59,10 @@ export interface Setup {
   /** Undefined means the centre of the frame. */
   gaze?: GazePx;
   frame: { backgroundRgb: [number, number, number] };
-  models: { acuity: AcuityModelName };
+  models: {
+    acuity: AcuityModelName;
+    colourLoss: { redGreenFovealCutoffCpd: number; blueYellowFovealCutoffCpd: number; redGreenEccentricityScale: number; blueYellowEccentricityScale: number };
+  };
   /** Names of the presets the setup started from, for captions and the report. */
   presetNames: { display?: string; viewer?: string };
 }

@@ -227,7 +227,7 @@ export function validateSetup(input: unknown, source: string): Setup {
     },
     gaze,
     frame: { backgroundRgb: frame.backgroundRgb as [number, number, number] },
-    models: { acuity: models.acuity as Setup['models']['acuity'] },
+    models: { acuity: models.acuity as Setup['models']['acuity'], colourLoss: models.colourLoss as Setup['models']['colourLoss'] },
     presetNames: { display: displayIn.name, viewer: viewerIn.name },
   };
 }

@@ -19,6 +19,8 @@ export interface CompareInput {
   gazePx: [number, number];
   caption: string;
   caution: string;
+  /** The viewing eye's blind spot, outlined on the percept. */
+  blindSpot?: { eye: string; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number };
 }
 
 export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; width: number; height: number } {
@@ -38,6 +40,7 @@ export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; w
     g.rect(offsetX, header, width, height);
     g.clip();
     drawRings(g, input.projection, gazePx, offsetX, header, text);
+    if (input.blindSpot && offsetX > 0) drawBlindSpot(g, input.projection, gazePx, input.blindSpot, offsetX, header, text);
     drawGazeMarker(g, offsetX + gazePx[0] + 0.5, header + gazePx[1] + 0.5, text * 0.8);
     g.restore();
   }
@@ -52,6 +55,29 @@ export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; w
   g.font = font(text * 0.75);
   g.fillText(input.caution, text * 0.6, text * 3.9);
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
+}
+
+/** The blind spot's outline traced through the projection, dotted, with its name. */
+function drawBlindSpot(g: SKRSContext2D, projection: Projection, gaze: [number, number], spot: NonNullable<CompareInput['blindSpot']>, ox: number, oy: number, text: number): void {
+  const points: [number, number][] = [];
+  for (let t = 0; t <= 360; t += 4) {
+    const x = spot.centreFieldDeg[0] + (spot.widthDeg / 2) * Math.cos((t * Math.PI) / 180);
+    const y = spot.centreFieldDeg[1] + (spot.heightDeg / 2) * Math.sin((t * Math.PI) / 180);
+    const p = pixelAtFieldPoint(projection, gaze, Math.hypot(x, y), (Math.atan2(y, x) * 180) / Math.PI);
+    if (p) points.push(p);
+  }
+  if (points.length < 3) return;
+  for (const [colour, width] of [['rgba(0,0,0,0.7)', 3.5], ['#ffd166', 1.8]] as const) {
+    g.strokeStyle = colour;
+    g.lineWidth = width;
+    g.setLineDash([2, 4]);
+    g.beginPath();
+    points.forEach(([x, y], i) => (i === 0 ? g.moveTo(ox + x, oy + y) : g.lineTo(ox + x, oy + y)));
+    g.stroke();
+    g.setLineDash([]);
+  }
+  const top = points.reduce((a, b) => (b[1] < a[1] ? b : a));
+  haloText(g, `blind spot (${spot.eye} eye), filled in`, ox + top[0] - text * 5, oy + top[1] - text * 0.5, text * 0.8, '#ffd166');
 }
 
 /** Iso-eccentricity rings traced through the display's projection, labelled where they cross the upper right. */

@@ -33,9 +33,13 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
   let min = Infinity;
   let max = 0;
   for (let i = 0; i < n; i++) {
+    // Infinite values mark the blind spot, which has no letter size at all.
+    if (!Number.isFinite(letter[i])) continue;
     if (letter[i] < min) min = letter[i];
     if (letter[i] > max) max = letter[i];
   }
+  if (!Number.isFinite(min)) min = max = 1;
+  const hasBlindSpot = letter.some((v) => !Number.isFinite(v));
   min = Math.max(0.5, min);
   max = Math.max(min * 2, max);
   const scale = logScale(min, max);
@@ -43,8 +47,17 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
   const frameRgba = linearToRgba8(frame);
   const rgba = new Uint8ClampedArray(n * 4);
   for (let i = 0; i < n; i++) {
-    const c = Math.round(scale(letter[i]) * 255) * 3;
     const grey = (frameRgba[i * 4] + frameRgba[i * 4 + 1] + frameRgba[i * 4 + 2]) / 3;
+    if (!Number.isFinite(letter[i])) {
+      // Blind spot: dark diagonal hatching, nothing is seen there.
+      const x = i % width;
+      const y = (i - x) / width;
+      const v = (x + y) % 12 < 3 ? 120 : 40;
+      rgba[i * 4] = rgba[i * 4 + 1] = rgba[i * 4 + 2] = v;
+      rgba[i * 4 + 3] = 255;
+      continue;
+    }
+    const c = Math.round(scale(letter[i]) * 255) * 3;
     for (let k = 0; k < 3; k++) rgba[i * 4 + k] = (1 - FRAME_UNDERLAY) * lut[c + k] + FRAME_UNDERLAY * grey;
     rgba[i * 4 + 3] = 255;
   }
@@ -64,7 +77,7 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
   drawGazeMarker(g, gazePx[0] + 0.5, gazePx[1] + 0.5, text * 0.8);
   const pixelLimited = min <= input.frameMinLetterPx * 1.0001;
   const ticks = [...new Set([Number(min.toPrecision(2)), ...niceLogTicks(min * 1.2, max, 7)])];
-  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks, arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx, hasLabels: Boolean(input.labels?.length) });
+  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks, arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx, hasLabels: Boolean(input.labels?.length), hasBlindSpot });
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
 }
 
@@ -77,7 +90,7 @@ function drawContour(rgba: Uint8ClampedArray, map: Float32Array, width: number, 
   for (let y = 0; y < height; y++) {
     for (let x = 0; x < width; x++) {
       const i = y * width + x;
-      if (map[i] >= level) continue;
+      if (map[i] >= level || !Number.isFinite(map[i])) continue;
       const edge = (x > 0 && map[i - 1] >= level) || (x < width - 1 && map[i + 1] >= level) || (y > 0 && map[i - width] >= level) || (y < height - 1 && map[i + width] >= level);
       if (!edge) continue;
       for (let dy = 0; dy < thickness; dy++) {
@@ -101,7 +114,7 @@ function contourLabelPoint(map: Float32Array, width: number, height: number, gaz
       const x = Math.round(gaze[0] + dx * r);
       const y = Math.round(gaze[1] + dy * r);
       if (x < 0 || y < 0 || x >= width || y >= height) break;
-      if (map[y * width + x] >= level) {
+      if (map[y * width + x] >= level && Number.isFinite(map[y * width + x])) {
         if (x > width - 80 || y < 30) break;
         return [x, y];
       }
@@ -124,6 +137,7 @@ interface LegendLayout {
   pixelLimited: boolean;
   frameMinLetterPx: number;
   hasLabels: boolean;
+  hasBlindSpot: boolean;
 }
 
 /** Colour of boxes around labels that are too small (told apart by line weight and a tag too, not by colour alone). */
@@ -145,7 +159,7 @@ function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text:
     g.strokeRect(x - pad, y - pad, w + 2 * pad, h + 2 * pad);
     g.setLineDash([]);
     if (tooSmall) {
-      const tag = l.whenFixated.sizeMargin < 1 ? '× too small even when looked at' : '× too small here';
+      const tag = l.fromGaze.limitedBy === 'blind spot' ? '× in the blind spot' : l.whenFixated.sizeMargin < 1 ? '× too small even when looked at' : '× too small here';
       haloText(g, tag, x - pad, y - pad - 4, text * 0.75, TOO_SMALL_COLOUR);
     }
   }
@@ -181,7 +195,8 @@ function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
   }
   const floor = l.pixelLimited ? ` Where the map shows ${formatPx(l.frameMinLetterPx)} px the frame's pixels, not the eye, are the limit.` : '';
   const boxes = l.hasLabels ? ` Label boxes (size only): solid white = at least ${READING_RESERVE}× the smallest legible letter, dashed = legible but small, thick pink = too small. Crowding between letters is judged in report.json.` : '';
-  const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}${boxes}`;
+  const blind = l.hasBlindSpot ? ' Hatched: the blind spot of the viewing eye.' : '';
+  const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}${blind}${boxes}`;
   g.font = font(l.text * 0.8);
   g.fillStyle = '#cfd4dc';
   wrapText(g, note, pad, barY + barH + l.text * 3.7, l.width - 2 * pad, l.text * 1.05);
