@@ -2,7 +2,7 @@
  * Per-pixel viewing geometry: eccentricity from the gaze, the meridian of the visual field the pixel
  * lies on, and the angular size of one pixel. Directions and rotations use gl-matrix.
  */
-import { quat, vec3 } from 'gl-matrix';
+import { mat3, quat, vec3 } from 'gl-matrix';
 import { ARCMIN_PER_RAD, degToRad, radToDeg } from '../units.js';
 import { pixelToTan, tanToPixel, type Projection } from './projection.js';
 
@@ -53,20 +53,25 @@ export function computeViewMap(p: Projection, gazePx: [number, number]): ViewMap
   const eccentricityDeg = new Float32Array(n);
   const meridianDeg = new Float32Array(n);
   const arcminPerPx = new Float32Array(n);
-  const rotation = gazeRotation(gazeDirection(p, gazePx));
-  const dir = vec3.create();
+  // The rotation as a matrix, applied inline: this loop runs once per pixel.
+  const r = mat3.fromQuat(mat3.create(), gazeRotation(gazeDirection(p, gazePx)));
+  const kArcmin = Math.sqrt(p.kxPerPx * p.kyPerPx) * ARCMIN_PER_RAD;
   for (let y = 0; y < height; y++) {
+    const b = -(y + 0.5 - p.cyPx) * p.kyPerPx + p.tyTan;
     for (let x = 0; x < width; x++) {
       const i = y * width + x;
-      const [a, b] = pixelToTan(p, x + 0.5, y + 0.5);
-      vec3.set(dir, a, b, 1);
-      vec3.normalize(dir, dir);
-      vec3.transformQuat(dir, dir, rotation);
-      // atan2 keeps precision near the gaze, where acos of a float32 near 1 would not.
-      eccentricityDeg[i] = radToDeg(Math.atan2(Math.sqrt(dir[0] * dir[0] + dir[1] * dir[1]), dir[2]));
-      const m = radToDeg(Math.atan2(dir[1], dir[0]));
+      const a = (x + 0.5 - p.cxPx) * p.kxPerPx + p.txTan;
+      const norm = 1 / Math.sqrt(a * a + b * b + 1);
+      // gl-matrix mat3 is column-major: row i of the rotation is (r[i], r[i + 3], r[i + 6]).
+      const dx = (r[0] * a + r[3] * b + r[6]) * norm;
+      const dy = (r[1] * a + r[4] * b + r[7]) * norm;
+      const dz = (r[2] * a + r[5] * b + r[8]) * norm;
+      // atan2 keeps precision near the gaze, where acos of a value near 1 would not.
+      eccentricityDeg[i] = radToDeg(Math.atan2(Math.sqrt(dx * dx + dy * dy), dz));
+      const m = radToDeg(Math.atan2(dy, dx));
       meridianDeg[i] = m < 0 ? m + 360 : m;
-      arcminPerPx[i] = arcminPerPxAt(p, a, b);
+      // Same as arcminPerPxAt: sqrt(kx·ky·cos³α) with cos α = norm.
+      arcminPerPx[i] = kArcmin * Math.sqrt(norm * norm * norm);
     }
   }
   return { width, height, eccentricityDeg, meridianDeg, arcminPerPx, gazePx };

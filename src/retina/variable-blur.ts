@@ -44,7 +44,9 @@ export function planLevelBlend(sigmaPx: Float32Array, maxLevels: number): LevelB
   }
   const lowerLevel = new Uint8Array(sigmaPx.length);
   const upperWeight = new Float32Array(sigmaPx.length);
-  const gaussianResponse = (sigma: number, f: number): number => Math.exp(-2 * Math.PI * Math.PI * sigma * sigma * f * f);
+  // The blend depends on σ alone, so it is tabulated once as a continuous level k + t against log2 σ
+  // (continuous across level boundaries, so linear interpolation is safe) and looked up per pixel.
+  const table = levelTable(sigmas, top);
   for (let i = 0; i < sigmaPx.length; i++) {
     const s = sigmaPx[i];
     if (!(s > 0)) continue;
@@ -52,16 +54,40 @@ export function planLevelBlend(sigmaPx: Float32Array, maxLevels: number): LevelB
       lowerLevel[i] = top;
       continue;
     }
+    const u = (Math.log2(s) - TABLE_LOG2_MIN) * TABLE_STEPS_PER_OCTAVE;
+    let level: number;
+    if (u <= 0) level = table[0];
+    else {
+      const j = Math.min(table.length - 2, Math.floor(u));
+      level = table[j] + (table[j + 1] - table[j]) * (u - j);
+    }
+    const k = Math.min(top - 1, Math.floor(level));
+    lowerLevel[i] = k;
+    upperWeight[i] = Math.min(1, Math.max(0, level - k));
+  }
+  return { lowerLevel, upperWeight, levels: top };
+}
+
+const TABLE_LOG2_MIN = -8;
+const TABLE_STEPS_PER_OCTAVE = 256;
+
+/** Continuous level k + t for σ = 2^(TABLE_LOG2_MIN + j/TABLE_STEPS_PER_OCTAVE), up to σ_top. */
+function levelTable(sigmas: number[], top: number): Float64Array {
+  const steps = Math.ceil((Math.log2(Math.max(sigmas[top], 1)) - TABLE_LOG2_MIN) * TABLE_STEPS_PER_OCTAVE) + 2;
+  const table = new Float64Array(steps);
+  const gaussianResponse = (sigma: number, f: number): number => Math.exp(-2 * Math.PI * Math.PI * sigma * sigma * f * f);
+  const cutoffTimesSigma = Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2) / Math.PI;
+  for (let j = 0; j < steps; j++) {
+    const s = Math.min(2 ** (TABLE_LOG2_MIN + j / TABLE_STEPS_PER_OCTAVE), sigmas[top]);
     let k = 0;
-    while (sigmas[k + 1] <= s) k++;
-    const f = Math.min(MATCH_AT_FRACTION_OF_CUTOFF * Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2) / (Math.PI * s), 0.5);
+    while (k < top - 1 && sigmas[k + 1] <= s) k++;
+    const f = Math.min((MATCH_AT_FRACTION_OF_CUTOFF * cutoffTimesSigma) / s, 0.5);
     const target = gaussianResponse(s, f);
     const mk = gaussianResponse(sigmas[k], f);
     const mk1 = gaussianResponse(sigmas[k + 1], f);
-    lowerLevel[i] = k;
-    upperWeight[i] = Math.min(1, Math.max(0, (mk - target) / (mk - mk1)));
+    table[j] = k + Math.min(1, Math.max(0, (mk - target) / (mk - mk1)));
   }
-  return { lowerLevel, upperWeight, levels: top };
+  return table;
 }
 
 /** Number of pyramid levels worth building for a frame: until a level would be smaller than 4 px. */

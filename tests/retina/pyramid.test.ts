@@ -89,3 +89,20 @@ describe('variable blur', () => {
     for (const v of out) expect(v).toBeCloseTo(0.42, 5);
   });
 });
+
+describe('level blend table (fast path) against the direct formula (slow reference)', () => {
+  test('the tabulated blend matches the per-pixel formula to 1e-3 in weight', () => {
+    const sigmas = Array.from({ length: 9 }, (_, k) => levelSigmaPx(k));
+    const g = (s: number, f: number): number => Math.exp(-2 * Math.PI * Math.PI * s * s * f * f);
+    const test = Float32Array.from([0.05, 0.3, 0.77, 1.0, 1.41, 2.2, 3.16, 5, 9.9, 30, 100, 200]);
+    const blend = planLevelBlend(test, 8);
+    test.forEach((s, i) => {
+      let k = 0;
+      while (sigmas[k + 1] <= s) k++;
+      const f = Math.min((0.5 * Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2)) / (Math.PI * s), 0.5);
+      const t = Math.min(1, Math.max(0, (g(sigmas[k], f) - g(s, f)) / (g(sigmas[k], f) - g(sigmas[k + 1], f))));
+      const ours = blend.lowerLevel[i] + blend.upperWeight[i];
+      expect(Math.abs(ours - (k + t))).toBeLessThan(1e-3);
+    });
+  });
+});
