@@ -10,9 +10,9 @@ import { judgeLabel, type Label, type LabelVerdict } from './analysis/labels.js'
 import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
-import { applyOtf, createOtfGrid } from './optics/apply-otf.js';
+import { applyOtf, otfGridFromKernel } from './optics/apply-otf.js';
+import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optics/eye-optics.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
-import { diskOtf, watsonMeanMtf } from './optics/mean-mtf.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
 import { fieldMeridians } from './retina/watson-rgc.js';
 import { computeCutoffMap } from './retina/cutoff-map.js';
@@ -22,8 +22,6 @@ import { lightState, type LightState } from './retina/light-level.js';
 import { computePercept } from './retina/percept.js';
 import { rodCutoffCpd, SCOTOPIC_PER_PHOTOPIC_WHITE } from './retina/rod-vision.js';
 import { scotopicOfLinearSrgb } from './colour/scotopic.js';
-import { clampPupilForMeanMtf } from './analysis/letter-size.js';
-import { arcminToDeg } from './units.js';
 
 /** Eccentricities listed in the acuity table, deg. */
 export const ACUITY_TABLE_ECCENTRICITIES_DEG = [0, 2, 5, 10, 20, 30, 40] as const;
@@ -65,6 +63,8 @@ export interface DerivedNumbers {
   /** The blind spot of the viewing eye in the field around the gaze; absent with both eyes. */
   blindSpot?: { eye: 'right' | 'left'; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number; centrePx?: [number, number] };
   eye: EyeState & { opticalCutoffCpd: number; defocusLetterArcmin: number };
+  /** Figures of the eye's optics: Strehl ratio, MTF, encircled energy, defocus per channel. */
+  optics: EyeOpticsFigures;
   acuity: AcuityRow[];
 }
 
@@ -136,7 +136,7 @@ function blindSpotFor(ctx: Context): DerivedNumbers['blindSpot'] {
   };
 }
 
-function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Adapting, scotopicRatio: number): DerivedNumbers {
+function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Adapting, scotopicRatio: number): { numbers: DerivedNumbers; optics: EyeOptics } {
   const { setup } = ctx;
   const eye = computeEyeState({
     viewer: setup.viewer, adaptingLuminanceCdM2: adapting.adaptingLuminanceCdM2,
@@ -146,7 +146,11 @@ function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Ad
   const light = lightState(adapting.adaptingLuminanceCdM2, scotopicRatio);
   const arcminPerFramePx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
   const framePpd = 60 / arcminPerFramePx;
-  return {
+  const optics = computeEyeOptics({
+    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD,
+    cylinderD: setup.viewer.refraction.cylinderD, axisDeg: setup.viewer.refraction.axisDeg, pixelArcmin: arcminPerFramePx,
+  });
+  const numbers: DerivedNumbers = {
     display: {
       kind: setup.display.kind,
       resolutionPx: setup.display.resolutionPx,
@@ -161,8 +165,10 @@ function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Ad
     light: { ...adapting, ...light },
     ...(blindSpotFor(ctx) ? { blindSpot: blindSpotFor(ctx) } : {}),
     eye: { ...eye, ...limits },
+    optics: optics.figures,
     acuity: acuityTable(ctx, limits, light.mesopicFactorM),
   };
+  return { numbers, optics };
 }
 
 /** The derived figures of a setup without a frame (the frame is taken to be the display's resolution). */
@@ -175,7 +181,7 @@ export function computeNumbers(setup: Setup): DerivedNumbers {
     ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
     : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
   // Without a frame the light is taken to have the colour of the display's white (D65).
-  return deriveNumbers(ctx, [size[0], size[1]], adapting, SCOTOPIC_PER_PHOTOPIC_WHITE);
+  return deriveNumbers(ctx, [size[0], size[1]], adapting, SCOTOPIC_PER_PHOTOPIC_WHITE).numbers;
 }
 
 export interface ProofResult {
@@ -193,6 +199,8 @@ export interface ProofResult {
   letterLimitIndex: Uint8Array;
   /** Verdicts for the frame's text labels, when labels were given. */
   labels?: LabelVerdict[];
+  /** The eye's point-spread functions and optical figures. */
+  optics: EyeOptics;
   models: { acuity: AcuityModel };
 }
 
@@ -219,18 +227,15 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   const adapting: Adapting = given === 'auto'
     ? { adaptingLuminanceCdM2: field.photopicCdM2, adaptingLuminanceFrom: 'frame' }
     : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
-  const numbers = deriveNumbers(ctx, size, adapting, field.scotopicToPhotopic);
+  const { numbers, optics } = deriveNumbers(ctx, size, adapting, field.scotopicToPhotopic);
   const { eye } = numbers;
 
   onStage('optics');
-  const ppd = numbers.display.framePixelsPerDegreeAtGaze;
-  const blurDeg = arcminToDeg(eye.blurCircleArcmin);
-  const mtfPupilMm = clampPupilForMeanMtf(eye.pupilDiameterMm);
-  const transfer = (fCpd: number): number => watsonMeanMtf(fCpd, mtfPupilMm) * diskOtf(fCpd, blurDeg);
-  const marginPx = Math.ceil(blurDeg * ppd) + 16;
   const retinalImage = createLinearRgb(frame.width, frame.height);
-  const grid = createOtfGrid(frame.width, frame.height, transfer, { pxPerDegX: ppd, pxPerDegY: ppd, marginPx });
-  applyOtf([0, 1, 2].map((c) => channelPlane(frame, c as 0 | 1 | 2)), retinalImage.planes, grid);
+  // All channels share one tile size: kernels are padded to the largest.
+  const largest = Math.max(...optics.kernels.map((k) => k.size));
+  const grids = optics.kernels.map((k) => otfGridFromKernel(frame.width, frame.height, padKernel(k.kernel, k.size, largest), largest));
+  applyOtf([0, 1, 2].map((c) => channelPlane(frame, c as 0 | 1 | 2)), retinalImage.planes, grids);
 
   onStage('retina: cutoffs');
   const n = frame.width * frame.height;
@@ -278,7 +283,16 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
     };
     verdicts = labels.map((label) => judgeLabel(label, maps));
   }
-  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, models: { acuity: ctx.model } };
+  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, optics, models: { acuity: ctx.model } };
+}
+
+/** Centres an odd-sized kernel in a larger odd size, zero around it. */
+function padKernel(kernel: Float32Array, size: number, to: number): Float32Array {
+  if (size === to) return kernel;
+  const out = new Float32Array(to * to);
+  const off = (to - size) / 2;
+  for (let y = 0; y < size; y++) out.set(kernel.subarray(y * size, (y + 1) * size), (y + off) * to + off);
+  return out;
 }
 
 /**

@@ -10,13 +10,14 @@ import type { OutputFile } from './io/write-outputs.js';
 import { frameFitsDisplay, runProof, type ProofResult, type StageListener } from './pipeline.js';
 import { renderCompare } from './render/compare.js';
 import { renderDetailMap } from './render/detail-map.js';
+import { renderPsfPicture } from './render/psf-picture.js';
 import { projectionFor } from './geometry/projection.js';
 import { proofReport } from './report/build-report.js';
 import { FRAME_MIN_LETTER_PX } from './analysis/letter-size.js';
 import { parseLabels } from './io/read-labels.js';
 import { CAUTION_SHORT } from './report/cautions.js';
 
-export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'report.json'] as const;
+export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'psf.png', 'report.json'] as const;
 
 export interface ProofOutputs {
   files: OutputFile[];
@@ -63,11 +64,15 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
     frame: image, percept: result.percept, projection: projectionFor(setup.display, image.width, image.height),
     gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
   });
+  const f = result.optics.figures;
+  const psf = renderPsfPicture(result.optics.channelPsfs, result.optics.grid, f,
+    `pupil ${result.numbers.eye.pupilDiameterMm.toFixed(1)} mm · Strehl ${f.strehlRatio.toFixed(3)} · MTF at 10/30 cpd ${f.mtfAt10Cpd.toFixed(2)}/${f.mtfAt30Cpd.toFixed(2)} · 50/80 % energy within ${f.encircledEnergy50DiameterArcmin.toFixed(1)}′/${f.encircledEnergy80DiameterArcmin.toFixed(1)}′ · focused for ${f.focusWavelengthNm} nm`);
   const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file);
   const files: OutputFile[] = [
     { name: 'percept.png', bytes: percept },
     { name: 'detail-map.png', bytes: await encodeRgba8Png(detail.rgba, detail.width, detail.height) },
     { name: 'compare.png', bytes: await encodeRgba8Png(compare.rgba, compare.width, compare.height) },
+    { name: 'psf.png', bytes: await encodeRgba8Png(psf.rgba, psf.width, psf.height) },
     { name: 'report.json', bytes: `${JSON.stringify(report, null, 2)}\n` },
   ];
   return { files, report, result };

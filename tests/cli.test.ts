@@ -28,13 +28,13 @@ beforeAll(async () => {
 });
 
 describe('eyeproof command', () => {
-  test('proof writes percept.png, detail-map.png, compare.png and report.json and exits 0', async () => {
+  test('proof writes percept.png, detail-map.png, compare.png, psf.png and report.json and exits 0', async () => {
     const out = join(dir, 'out');
     const r = await run(['proof', frame, '--setup', 'desktop-27in', '--viewer', 'age-55', '--gaze', '320,180', '--out', out]);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
     expect(r.stderr).toMatch(/optics/);
-    expect(readdirSync(out).sort()).toEqual(['compare.png', 'detail-map.png', 'percept.png', 'report.json']);
+    expect(readdirSync(out).sort()).toEqual(['compare.png', 'detail-map.png', 'percept.png', 'psf.png', 'report.json']);
     const report = JSON.parse(readFileSync(join(out, 'report.json'), 'utf8'));
     expect(report.cautions.join(' ')).toMatch(/not a medical device/);
     expect(report.gaze).toEqual({ xPx: 320, yPx: 180 });

@@ -3,7 +3,7 @@
  * in cycles per degree, via FFT with mirrored borders (so frame edges do not darken or wrap).
  */
 import type { Plane } from '../image/plane.js';
-import { createFft2dPlan, filterComplex, nextPowerOfTwo } from './fft2d.js';
+import { createFft2dPlan, fft2dForward, filterComplex, nextPowerOfTwo } from './fft2d.js';
 
 export interface OtfSampling {
   /** Frame pixels per degree horizontally and vertically where the transfer is evaluated. */
@@ -29,7 +29,10 @@ export interface OtfGrid {
   fftHeight: number;
   /** Border of each tile that only feeds its neighbours' pixels, px. */
   marginPx: number;
+  /** Real part of the transfer per bin. */
   transfer: Float32Array;
+  /** Imaginary part, for kernels that are not point-symmetric. */
+  transferIm?: Float32Array;
 }
 
 /**
@@ -67,8 +70,40 @@ export function createOtfGrid(width: number, height: number, transferOfCpd: (fCp
   return { fftWidth, fftHeight, marginPx: sampling.marginPx, transfer };
 }
 
+/**
+ * The transfer of a pixel kernel (odd size, centred, e.g. a point-spread function binned to frame
+ * pixels) on the bins of an FFT tile with room for its reach.
+ */
+export function otfGridFromKernel(width: number, height: number, kernel: Float32Array, kernelSize: number, tilePx?: number): OtfGrid {
+  const half = (kernelSize - 1) / 2;
+  const marginPx = half + 2;
+  const fftWidth = tilePx ?? tileSize(width, marginPx);
+  const fftHeight = tilePx ?? tileSize(height, marginPx);
+  const plan = createFft2dPlan(fftWidth, fftHeight);
+  const data = new Float64Array(2 * fftWidth * fftHeight);
+  // The kernel's centre goes to bin (0, 0); negative offsets wrap around.
+  for (let ky = 0; ky < kernelSize; ky++) {
+    const y = (ky - half + fftHeight) % fftHeight;
+    for (let kx = 0; kx < kernelSize; kx++) {
+      const x = (kx - half + fftWidth) % fftWidth;
+      data[2 * (y * fftWidth + x)] = kernel[ky * kernelSize + kx];
+    }
+  }
+  fft2dForward(plan, data);
+  const transfer = new Float32Array(fftWidth * fftHeight);
+  const transferIm = new Float32Array(fftWidth * fftHeight);
+  let maxIm = 0;
+  for (let i = 0; i < transfer.length; i++) {
+    transfer[i] = data[2 * i];
+    transferIm[i] = data[2 * i + 1];
+    maxIm = Math.max(maxIm, Math.abs(transferIm[i]));
+  }
+  return { fftWidth, fftHeight, marginPx, transfer, ...(maxIm > 1e-7 ? { transferIm } : {}) };
+}
+
 interface TileJob {
   src: Float32Array;
+  grid: OtfGrid;
   out: Float32Array;
   /** Top-left of the tile's interior in the plane. */
   x0: number;
@@ -81,15 +116,18 @@ interface TileJob {
  * share one complex transform as its real and imaginary parts (a real, even transfer keeps them apart).
  * `outs[i]` receives `inputs[i]` filtered and must not alias any input.
  */
-export function applyOtf(inputs: readonly Plane[], outs: readonly Float32Array[], grid: OtfGrid): void {
+export function applyOtf(inputs: readonly Plane[], outs: readonly Float32Array[], grids: OtfGrid | readonly OtfGrid[]): void {
   if (inputs.length === 0 || outs.length !== inputs.length) throw new Error('applyOtf takes one output per input plane');
+  const gridOf = (c: number): OtfGrid => (Array.isArray(grids) ? grids[c] : (grids as OtfGrid));
+  const sizes = new Set(inputs.map((_, c) => `${gridOf(c).fftWidth}×${gridOf(c).fftHeight}×${gridOf(c).marginPx}`));
+  if (sizes.size !== 1) throw new Error('applyOtf: every plane must use tiles of one size');
   const { width, height } = inputs[0];
-  const { fftWidth: fw, fftHeight: fh, marginPx: m } = grid;
+  const { fftWidth: fw, fftHeight: fh, marginPx: m } = gridOf(0);
   const innerW = Math.max(1, fw - 2 * m);
   const innerH = Math.max(1, fh - 2 * m);
   const jobs: TileJob[] = [];
   inputs.forEach((plane, c) => {
-    for (let y0 = 0; y0 < height; y0 += innerH) for (let x0 = 0; x0 < width; x0 += innerW) jobs.push({ src: plane.data, out: outs[c], x0, y0 });
+    for (let y0 = 0; y0 < height; y0 += innerH) for (let x0 = 0; x0 < width; x0 += innerW) jobs.push({ src: plane.data, grid: gridOf(c), out: outs[c], x0, y0 });
   });
   const plan = createFft2dPlan(fw, fh);
   const data = new Float64Array(2 * fw * fh);
@@ -109,11 +147,13 @@ export function applyOtf(inputs: readonly Plane[], outs: readonly Float32Array[]
       for (let x = job.x0; x < xEnd; x++) job.out[y * width + x] = data[base + 2 * x];
     }
   };
-  for (let j = 0; j < jobs.length; j += 2) {
-    const pair = jobs.slice(j, j + 2);
+  // Two tiles share one transform when they are filtered by the same transfer.
+  for (let j = 0; j < jobs.length;) {
+    const pair = j + 1 < jobs.length && jobs[j + 1].grid === jobs[j].grid ? jobs.slice(j, j + 2) : jobs.slice(j, j + 1);
+    j += pair.length;
     data.fill(0);
     pair.forEach((job, part) => load(job, part as 0 | 1));
-    filterComplex(plan, data, grid.transfer);
+    filterComplex(plan, data, pair[0].grid.transfer, pair[0].grid.transferIm);
     pair.forEach((job, part) => store(job, part as 0 | 1));
   }
 }

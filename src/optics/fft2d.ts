@@ -71,19 +71,34 @@ function transformColumns(plan: Fft2dPlan, data: Float64Array, inverse: boolean,
   }
 }
 
+/** Forward 2D transform of an interleaved complex buffer, in place. */
+export function fft2dForward(plan: Fft2dPlan, data: Float64Array): void {
+  transformRows(plan, data, false);
+  transformColumns(plan, data, false);
+}
+
 /**
- * Filters an interleaved complex image by a real transfer function given per frequency bin
- * (`transfer[ky * width + kx]`), in place. A real, even transfer filters the real and imaginary
- * parts independently, so two real planes can share one transform.
+ * Filters an interleaved complex image by a transfer function given per frequency bin
+ * (`re[ky * width + kx]`, and `im` when the kernel is not point-symmetric), in place. Convolution
+ * with a real kernel is linear over complex numbers, so the real and imaginary parts of the buffer
+ * (two real planes) are filtered independently.
  */
-export function filterComplex(plan: Fft2dPlan, data: Float64Array, transfer: Float32Array): void {
+export function filterComplex(plan: Fft2dPlan, data: Float64Array, re: Float32Array, im?: Float32Array): void {
   const { width, height } = plan;
   transformRows(plan, data, false);
   transformColumns(plan, data, false, (kx, column) => {
     for (let ky = 0; ky < height; ky++) {
-      const h = transfer[ky * width + kx];
-      column[2 * ky] *= h;
-      column[2 * ky + 1] *= h;
+      const hr = re[ky * width + kx];
+      const a = column[2 * ky];
+      const b = column[2 * ky + 1];
+      if (im) {
+        const hi = im[ky * width + kx];
+        column[2 * ky] = a * hr - b * hi;
+        column[2 * ky + 1] = a * hi + b * hr;
+      } else {
+        column[2 * ky] = a * hr;
+        column[2 * ky + 1] = b * hr;
+      }
     }
   });
   transformRows(plan, data, true);

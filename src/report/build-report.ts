@@ -25,7 +25,8 @@ export function modelsUsed(setup: Setup, acuity: { name: string; summary: string
     ...pupil,
     { stage: 'accommodation', name: 'hofstetter-1950-mean', summary: 'mean amplitude 18.5 − 0.30·age D', source: 'Hofstetter (1950)', status: 'published' },
     { stage: 'defocus', name: 'residual-defocus', summary: 'demand 1/d + spherical equivalent, supplied within 0…amplitude, no lag; cylinder adds as blur strength', source: 'standard optics; blur strength after Thibos et al. (2004)', status: 'proposal' },
-    { stage: 'optics', name: 'mean-mtf-and-defocus-disk', summary: 'mean optical MTF of corrected eyes times the OTF of a uniform blur disk, spatially invariant at the gaze’s pixel scale', source: 'Watson (2013), J Vision 13(6):18; geometric blur circle', status: 'published' },
+    { stage: 'optics', name: 'wavefront-psf', summary: 'PSF = |FFT(P·exp(i2πW/λ))|² from ANSI Zernike terms: the viewer’s residual defocus and cylinder (power vectors), typical higher-order aberrations, 3 wavelengths per primary with the eye’s LCA; binned to frame pixels and applied by tiled FFT at the gaze’s pixel scale', source: 'Goodman (Fourier optics); ANSI Z80.28; Thibos et al. (2004) power vectors; Thibos et al. (1992) chromatic eye; Salmon & van de Pol (2006)', status: 'published' },
+    { stage: 'optics', name: 'typical-eye', summary: 'SA 0.13 µm, vertical coma and trefoil 0.2145 µm each (higher-order RMS 0.33 µm) at 6 mm (scaled r^n); residual lag 0.3 D and cylinder 0.4 D calibrated to Watson (2013); focus for 570 nm; band weights per primary', source: 'Salmon & van de Pol (2006); calibration against Watson (2013)', status: 'proposal' },
     { stage: 'retina', name: acuity.name, summary: acuity.summary, source: acuity.source, status: 'published' },
     { stage: 'retina', name: 'opponent-channels', summary: 'Smith & Pokorny cone fundamentals; A = L + M, RG = L − k·M, BY = S − k′·(L + M) with white at zero chroma', source: 'Smith & Pokorny (1975); weights our design', status: 'proposal' },
     { stage: 'retina', name: 'colour-loss', summary: `chromatic cutoffs f0·2.3/(s·e + 2.3): red–green ${setup.models.colourLoss.redGreenFovealCutoffCpd} cpd, s = ${setup.models.colourLoss.redGreenEccentricityScale}; blue–yellow ${setup.models.colourLoss.blueYellowFovealCutoffCpd} cpd, s = ${setup.models.colourLoss.blueYellowEccentricityScale}; no blue–yellow detail under 25′ at the gaze; chromaticity luminance-weighted`, source: 'built on Mullen (1991), Mullen & Kingdom (2002), Mullen, Sakurai & Chu (2005), Hansen et al. (2009), Williams, MacLeod & Hayhoe (1981)', status: 'proposal' },
@@ -67,6 +68,7 @@ export function numbersReport(setup: Setup, numbers: DerivedNumbers, acuity: { n
     light: { ...numbers.light, adaptingFieldDeg: setup.light.adaptingFieldDeg },
     ...(numbers.blindSpot ? { blindSpot: numbers.blindSpot } : {}),
     eye,
+    optics: numbers.optics,
     acuity: numbers.acuity,
     models: modelsUsed(setup, acuity),
   });

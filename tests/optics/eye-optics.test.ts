@@ -1,0 +1,142 @@
+import { describe, expect, test } from 'vitest';
+import { chromaticRefractionD } from '../../src/optics/chromatic.js';
+import { computeEyeOptics, typicalHigherOrderTerms, TYPICAL_EYE } from '../../src/optics/eye-optics.js';
+import { diffractionMtf, watsonMeanMtf } from '../../src/optics/mean-mtf.js';
+import { defocusDiopters, powerVectorFromPrescription, prescriptionFromPowerVector, zernikeFromPowerVector } from '../../src/optics/power-vector.js';
+import { binPsfToPixels, encircledEnergyDiameterArcmin, monochromaticPsf, radialMtf } from '../../src/optics/pupil-psf.js';
+import { zernike, zernikeIndex, zernikeOrders } from '../../src/optics/zernike.js';
+
+const ARCMIN_PER_RAD = (180 / Math.PI) * 60;
+
+describe('Zernike polynomials (ANSI Z80.28; Thibos et al. 2002)', () => {
+  test('single index: j 4 = defocus, 3 and 5 = astigmatism, 12 = primary spherical', () => {
+    expect(zernikeIndex(2, 0)).toBe(4);
+    expect(zernikeIndex(2, -2)).toBe(3);
+    expect(zernikeIndex(2, 2)).toBe(5);
+    expect(zernikeIndex(4, 0)).toBe(12);
+    expect(zernikeOrders(12)).toEqual({ n: 4, m: 0 });
+  });
+  test('each term has unit RMS over the pupil (numerical integration)', () => {
+    for (const [n, m] of [[2, 0], [2, 2], [3, -1], [4, 0], [3, 3]]) {
+      let sum = 0;
+      let count = 0;
+      for (let y = -1; y <= 1; y += 0.01) for (let x = -1; x <= 1; x += 0.01) {
+        const r = Math.hypot(x, y);
+        if (r > 1) continue;
+        sum += zernike(n, m, r, Math.atan2(y, x)) ** 2;
+        count++;
+      }
+      expect(Math.sqrt(sum / count)).toBeCloseTo(1, 2);
+    }
+  });
+});
+
+describe('power vectors, Thibos, Hong, Bradley & Applegate (2004)', () => {
+  test('c₂⁰ = 1 µm over a 3 mm radius is M = −0.7698 D; 1 D over a 5 mm pupil is |c₂⁰| = 0.9021 µm (derived)', () => {
+    expect(defocusDiopters(1, 3)).toBeCloseTo(-0.7698, 4);
+    expect(Math.abs(zernikeFromPowerVector({ mD: 1, j0D: 0, j45D: 0 }, 2.5)[0].coefficientUm)).toBeCloseTo(0.9021, 4);
+  });
+  test('sphere/cylinder/axis survive a round trip through power vectors (negative-cylinder form)', () => {
+    const back = prescriptionFromPowerVector(powerVectorFromPrescription(-1.25, -0.75, 30));
+    expect(back.sphereD).toBeCloseTo(-1.25, 10);
+    expect(back.cylinderD).toBeCloseTo(-0.75, 10);
+    expect(back.axisDeg).toBeCloseTo(30, 8);
+  });
+});
+
+describe('longitudinal chromatic aberration, Thibos et al. (1992) chromatic eye', () => {
+  test('Rx(450) − Rx(650) = −1.232 D; Rx(400) − Rx(700) = −2.104 D (derived)', () => {
+    expect(chromaticRefractionD(450) - chromaticRefractionD(650)).toBeCloseTo(-1.232, 3);
+    expect(chromaticRefractionD(400) - chromaticRefractionD(700)).toBeCloseTo(-2.104, 3);
+  });
+});
+
+describe('PSF from the pupil function (Goodman; Born & Wolf)', () => {
+  // 3 mm pupil at 555 nm, four samples per λ/(2D).
+  const grid = { size: 256, sampleRad: 555e-9 / (2 * 3e-3) / 4 };
+  const perfect = monochromaticPsf(3, 555, [], grid);
+
+  test('diffraction-limited: the Airy pattern has its first zero at 1.22 λ/D = 0.7759′ (Born & Wolf)', () => {
+    const row = Array.from({ length: 20 }, (_, k) => perfect[128 * 256 + 128 + k]);
+    const firstMin = row.findIndex((v, k) => k > 2 && v < row[k - 1] && v <= row[k + 1]);
+    expect(firstMin * grid.sampleRad * ARCMIN_PER_RAD).toBeCloseTo(0.7759, 1);
+  });
+
+  test('diffraction-limited MTF equals the analytic circular-pupil MTF (Born & Wolf), e.g. 0.391 at half the 94.34 cpd cutoff', () => {
+    for (const f of [10, 30, 47.17, 70]) expect(radialMtf(perfect, grid, f)).toBeCloseTo(diffractionMtf(f / 94.34), 2);
+  });
+
+  test('Maréchal: a wavefront of RMS λ/14 has a Strehl ratio of about 0.8176 (Maréchal approximation)', () => {
+    const psf = monochromaticPsf(3, 555, [{ n: 4, m: 0, coefficientUm: 0.555 / 14 }], grid);
+    const peak = (p: Float64Array): number => p.reduce((a, b) => Math.max(a, b), 0);
+    expect(peak(psf) / peak(perfect)).toBeCloseTo(0.8176, 1);
+  });
+
+  test('large defocus approaches the geometric blur circle: 80 % of the energy within √0.8 of its diameter (geometric optics)', () => {
+    const defocusGrid = { size: 512, sampleRad: 555e-9 / (2 * 5e-3) };
+    const psf = monochromaticPsf(5, 555, zernikeFromPowerVector({ mD: 2, j0D: 0, j45D: 0 }, 2.5), defocusGrid);
+    const blurArcmin = 5e-3 * 2 * ARCMIN_PER_RAD;
+    expect(encircledEnergyDiameterArcmin(psf, defocusGrid, 0.8) / (Math.sqrt(0.8) * blurArcmin)).toBeCloseTo(1, 1);
+  });
+
+  test('every PSF and every binned kernel holds all the light (energy conservation)', () => {
+    expect(perfect.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 10);
+    const { kernel } = binPsfToPixels(perfect, grid, 5);
+    expect(kernel.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 5);
+  });
+
+  test('uncorrected astigmatism spreads the PSF into an ellipse whose orientation follows the axis (power vectors)', () => {
+    const moments = (axisDeg: number): [number, number] => {
+      const psf = monochromaticPsf(3, 555, zernikeFromPowerVector(powerVectorFromPrescription(0, -1, axisDeg), 1.5), { size: 256, sampleRad: grid.sampleRad });
+      let sxx = 0;
+      let syy = 0;
+      for (let y = 0; y < 256; y++) for (let x = 0; x < 256; x++) {
+        sxx += psf[y * 256 + x] * (x - 128) ** 2;
+        syy += psf[y * 256 + x] * (y - 128) ** 2;
+      }
+      return [sxx, syy];
+    };
+    const [x90, y90] = moments(90);
+    const [x180, y180] = moments(180);
+    expect(Math.max(x90, y90) / Math.min(x90, y90)).toBeGreaterThan(2);
+    // Turning the axis by 90° swaps the long and short directions.
+    expect(Math.sign(x90 - y90)).toBe(-Math.sign(x180 - y180));
+  });
+});
+
+describe('the whole model against a published population figure', () => {
+  test('typical higher-order aberrations: RMS 0.33 µm at 6 mm with |c₄⁰| = 0.13 µm (Salmon & van de Pol 2006)', () => {
+    const rms = Math.sqrt(typicalHigherOrderTerms(6).reduce((a, t) => a + t.coefficientUm ** 2, 0));
+    expect(rms).toBeCloseTo(0.33, 2);
+    expect(TYPICAL_EYE.sphericalAberrationUm).toBe(0.13);
+  });
+
+  test('a typical corrected eye lies within 0.07 of the Watson (2013) mean MTF from 5 to 30 cpd for 3, 4 and 6 mm pupils', () => {
+    const rows: string[] = [];
+    let worst = 0;
+    for (const d of [3, 4, 6]) {
+      const grid = { size: 256, sampleRad: 555e-9 / (2 * d * 1e-3) };
+      const psf = monochromaticPsf(d, 555, [
+        ...zernikeFromPowerVector({ mD: TYPICAL_EYE.residualLagD, j0D: TYPICAL_EYE.residualJ0D, j45D: 0 }, d / 2),
+        ...typicalHigherOrderTerms(d),
+      ], grid);
+      for (const f of [5, 10, 20, 30]) {
+        const ours = radialMtf(psf, grid, f);
+        const watson = watsonMeanMtf(f, d);
+        worst = Math.max(worst, Math.abs(ours - watson));
+        rows.push(`${d} mm ${f} cpd: model ${ours.toFixed(3)}, Watson ${watson.toFixed(3)}`);
+      }
+    }
+    expect(worst, rows.join('\n')).toBeLessThan(0.07);
+  });
+});
+
+describe('eye optics for a frame', () => {
+  test('blue text is softer than red and green for an eye focused at 570 nm (Thibos et al. 1992 sign: blue focuses in front)', () => {
+    const optics = computeEyeOptics({ pupilDiameterMm: 4, defocusD: 0, cylinderD: 0, axisDeg: 0, pixelArcmin: 1 });
+    const peak = (k: { kernel: Float32Array }): number => k.kernel.reduce((a, b) => Math.max(a, b), 0);
+    expect(peak(optics.kernels[2])).toBeLessThan(peak(optics.kernels[1]));
+    expect(optics.figures.defocusByChannelD.blue).toBeLessThan(optics.figures.defocusByChannelD.green);
+    for (const k of optics.kernels) expect(k.kernel.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 5);
+  });
+});
