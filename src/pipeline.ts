@@ -12,6 +12,8 @@ import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFi
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
 import { applyOtf, otfGridFromKernel } from './optics/apply-otf.js';
 import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optics/eye-optics.js';
+import { addStrayLight } from './optics/veil.js';
+import { scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
 import { fieldMeridians } from './retina/watson-rgc.js';
@@ -63,8 +65,8 @@ export interface DerivedNumbers {
   /** The blind spot of the viewing eye in the field around the gaze; absent with both eyes. */
   blindSpot?: { eye: 'right' | 'left'; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number; centrePx?: [number, number] };
   eye: EyeState & { opticalCutoffCpd: number; defocusLetterArcmin: number };
-  /** Figures of the eye's optics: Strehl ratio, MTF, encircled energy, defocus per channel. */
-  optics: EyeOpticsFigures;
+  /** Figures of the eye's optics: Strehl ratio, MTF, encircled energy, defocus per channel, stray light. */
+  optics: EyeOpticsFigures & { scatteredFraction1To30Deg: number };
   acuity: AcuityRow[];
 }
 
@@ -165,7 +167,8 @@ function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Ad
     light: { ...adapting, ...light },
     ...(blindSpotFor(ctx) ? { blindSpot: blindSpotFor(ctx) } : {}),
     eye: { ...eye, ...limits },
-    optics: optics.figures,
+    // Share of a point's light the CIE glare equation scatters to 1°–30°, as the veil applies it.
+    optics: { ...optics.figures, scatteredFraction1To30Deg: scatteredFraction(VEIL_FROM_DEG, 30, setup.viewer.ageYears, setup.viewer.eyePigmentation) },
     acuity: acuityTable(ctx, limits, light.mesopicFactorM),
   };
   return { numbers, optics };
@@ -236,6 +239,8 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   const largest = Math.max(...optics.kernels.map((k) => k.size));
   const grids = optics.kernels.map((k) => otfGridFromKernel(frame.width, frame.height, padKernel(k.kernel, k.size, largest), largest));
   applyOtf([0, 1, 2].map((c) => channelPlane(frame, c as 0 | 1 | 2)), retinalImage.planes, grids);
+  onStage('optics: stray light');
+  addStrayLight(retinalImage, { arcminPerPx: numbers.display.arcminPerFramePxAtGaze, ageYears: setup.viewer.ageYears, pigmentation: setup.viewer.eyePigmentation });
 
   onStage('retina: cutoffs');
   const n = frame.width * frame.height;

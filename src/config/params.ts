@@ -83,6 +83,11 @@ export const viewerDecl: ObjectDecl = {
       doc: 'Pupil diameter, or "auto" from light, field size, age and eyes (Watson & Yellott 2012). Default "auto".',
     },
     eyes: { type: 'enum', values: ['right', 'left', 'both'], default: 'both', doc: 'Which eye(s) view the frame.' },
+    eyePigmentation: {
+      type: 'number', unit: '', minimum: 0, maximum: 1.2, default: 0.5,
+      doc: 'Pigmentation of the eye for stray light: 0 very dark, 0.5 brown, 1.0 light, 1.2 very light blue.',
+      source: 'CIE 180:2010 disability glare equation (category values from memory)',
+    },
   },
 };
 

@@ -38,6 +38,7 @@ export interface Viewer {
   refraction: { sphereD: number; cylinderD: number; axisDeg: number };
   pupilDiameterMm: number | 'auto';
   eyes: Eyes;
+  eyePigmentation: number;
 }
 
 export interface Light {

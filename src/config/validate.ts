@@ -220,6 +220,7 @@ export function validateSetup(input: unknown, source: string): Setup {
       refraction: viewer.refraction as Setup['viewer']['refraction'],
       pupilDiameterMm: (viewer.pupilDiameterMm as number | 'auto' | undefined) ?? 'auto',
       eyes: viewer.eyes as Setup['viewer']['eyes'],
+      eyePigmentation: viewer.eyePigmentation as number,
     },
     light: {
       adaptingLuminanceCdM2: (light.adaptingLuminanceCdM2 as number | 'auto' | undefined) ?? 'auto',

@@ -38,7 +38,7 @@ describe('residual defocus and blur circle', () => {
 
   test('cylinder adds as half its power to the blur strength (power vectors, Thibos et al. 2004, from memory)', () => {
     const eye = computeEyeState({
-      viewer: { ageYears: 30, refraction: { sphereD: 0, cylinderD: -1, axisDeg: 90 }, pupilDiameterMm: 4, eyes: 'both' },
+      viewer: { ageYears: 30, refraction: { sphereD: 0, cylinderD: -1, axisDeg: 90 }, pupilDiameterMm: 4, eyes: 'both', eyePigmentation: 0.5 },
       adaptingLuminanceCdM2: 100, adaptingFieldDeg: 60, focalDistanceM: 1,
     });
     // Spherical equivalent −0.5 D at 1 m: the eye relaxes to 0.5 D demand, no spherical residual; J = 0.5 D.
