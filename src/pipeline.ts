@@ -151,6 +151,7 @@ function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Ad
   const optics = computeEyeOptics({
     pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD,
     cylinderD: setup.viewer.refraction.cylinderD, axisDeg: setup.viewer.refraction.axisDeg, pixelArcmin: arcminPerFramePx,
+    ...(setup.viewer.wavefront ? { measured: setup.viewer.wavefront } : {}),
   });
   const numbers: DerivedNumbers = {
     display: {

@@ -36,13 +36,22 @@ export interface TupleDecl {
   source?: string;
 }
 
+/** A list of numbers of variable length. */
+export interface ListDecl {
+  type: 'list';
+  doc: string;
+  item: Omit<NumberDecl, 'doc' | 'default'>;
+  maxItems: number;
+  source?: string;
+}
+
 export interface ObjectDecl {
   type: 'object';
   doc: string;
   fields: Record<string, Decl>;
 }
 
-export type Decl = NumberDecl | EnumDecl | TupleDecl | ObjectDecl;
+export type Decl = NumberDecl | EnumDecl | TupleDecl | ListDecl | ObjectDecl;
 
 export function describeExpected(decl: Decl): string {
   switch (decl.type) {
@@ -54,6 +63,8 @@ export function describeExpected(decl: Decl): string {
       return `one of ${decl.values.map((v) => `"${v}"`).join(', ')}`;
     case 'tuple':
       return `[${decl.names.join(', ')}], each ${describeExpected({ ...decl.item, doc: '' })}`;
+    case 'list':
+      return `a list of up to ${decl.maxItems} numbers, each ${describeExpected({ ...decl.item, doc: '' })}`;
     case 'object':
       return 'an object';
   }

@@ -83,6 +83,18 @@ export const viewerDecl: ObjectDecl = {
       doc: 'Pupil diameter, or "auto" from light, field size, age and eyes (Watson & Yellott 2012). Default "auto".',
     },
     eyes: { type: 'enum', values: ['right', 'left', 'both'], default: 'both', doc: 'Which eye(s) view the frame.' },
+    wavefront: {
+      type: 'object',
+      doc: 'Measured aberrations of this eye (optional). When given they replace the typical eye\'s higher-order aberrations and residual; refraction still applies on top.',
+      fields: {
+        pupilDiameterMm: { type: 'number', unit: 'mm', minimum: 1, maximum: 9, doc: 'Pupil diameter over which the coefficients were measured; a larger pupil is limited to it.' },
+        coefficientsUm: {
+          type: 'list', maxItems: 28, item: { type: 'number', unit: 'µm', minimum: -20, maximum: 20 },
+          doc: 'Zernike coefficients in µm by ANSI Z80.28 single index j = 0, 1, 2, … (piston and tilts, j 0–2, are ignored).',
+          source: 'ANSI Z80.28',
+        },
+      },
+    },
     eyePigmentation: {
       type: 'number', unit: '', minimum: 0, maximum: 1.2, default: 0.5,
       doc: 'Pigmentation of the eye for stray light: 0 very dark, 0.5 brown, 1.0 light, 1.2 very light blue.',

@@ -23,6 +23,11 @@ function declToSchema(decl: Decl): Schema {
         ...(decl.default ? { default: [...decl.default] } : {}),
       };
     }
+    case 'list': {
+      const item = declToSchema({ ...decl.item, doc: '' });
+      delete item.description;
+      return { type: 'array', items: item, maxItems: decl.maxItems, description: `${decl.doc}${decl.item.unit ? ` Unit: ${decl.item.unit}.` : ''}` };
+    }
     case 'object':
       return objectSchema(decl);
   }

@@ -39,6 +39,8 @@ export interface Viewer {
   pupilDiameterMm: number | 'auto';
   eyes: Eyes;
   eyePigmentation: number;
+  /** Measured Zernike coefficients (µm, ANSI j order) over a stated pupil. */
+  wavefront?: { pupilDiameterMm: number; coefficientsUm: number[] };
 }
 
 export interface Light {

@@ -56,6 +56,12 @@ function checkValue(value: unknown, decl: Decl, path: string, problems: ConfigPr
       const items = value.map((v, i) => checkValue(v, { ...decl.item, doc: '' }, `${path}[${i}]`, problems));
       return items.some((v) => v === undefined) ? undefined : items;
     }
+    case 'list': {
+      if (value === undefined) return undefined;
+      if (!Array.isArray(value) || value.length > decl.maxItems) return fail();
+      const items = value.map((v, i) => checkValue(v, { ...decl.item, doc: '' }, `${path}[${i}]`, problems));
+      return items.some((v) => v === undefined) ? undefined : items;
+    }
     case 'object':
       if (value === undefined) value = {};
       if (!isObject(value)) return fail();
@@ -212,6 +218,7 @@ export function validateSetup(input: unknown, source: string): Setup {
       problems.push({ path: 'gaze', received: input.gaze, expected: 'both xPx and yPx' });
     } else if (g) gaze = { xPx: g.xPx as number, yPx: g.yPx as number };
   }
+  const wavefront = wavefrontOf(viewer?.wavefront as Json | undefined, problems);
   if (problems.length > 0 || !display || !viewer || !light || !frame || !models) throw new ConfigError(source, problems);
   return {
     display,
@@ -221,6 +228,7 @@ export function validateSetup(input: unknown, source: string): Setup {
       pupilDiameterMm: (viewer.pupilDiameterMm as number | 'auto' | undefined) ?? 'auto',
       eyes: viewer.eyes as Setup['viewer']['eyes'],
       eyePigmentation: viewer.eyePigmentation as number,
+      ...wavefront,
     },
     light: {
       adaptingLuminanceCdM2: (light.adaptingLuminanceCdM2 as number | 'auto' | undefined) ?? 'auto',
@@ -231,6 +239,15 @@ export function validateSetup(input: unknown, source: string): Setup {
     models: { acuity: models.acuity as Setup['models']['acuity'], colourLoss: models.colourLoss as Setup['models']['colourLoss'] },
     presetNames: { display: displayIn.name, viewer: viewerIn.name },
   };
+}
+
+function wavefrontOf(w: Json | undefined, problems: ConfigProblem[]): { wavefront?: Setup['viewer']['wavefront'] } {
+  if (!w || (w.pupilDiameterMm === undefined && w.coefficientsUm === undefined)) return {};
+  if (w.pupilDiameterMm === undefined || w.coefficientsUm === undefined) {
+    problems.push({ path: 'viewer.wavefront', received: w, expected: 'both pupilDiameterMm and coefficientsUm' });
+    return {};
+  }
+  return { wavefront: { pupilDiameterMm: w.pupilDiameterMm as number, coefficientsUm: w.coefficientsUm as number[] } };
 }
 
 /** Checks the gaze against the frame size; the frame is only known when it has been read. */

@@ -8,7 +8,7 @@ import { chromaticRefractionD, FOCUS_WAVELENGTH_NM, PRIMARY_BANDS } from './chro
 import { nextPowerOfTwo } from './fft2d.js';
 import { powerVectorFromPrescription, zernikeFromPowerVector } from './power-vector.js';
 import { binPsfToPixels, encircledEnergyDiameterArcmin, monochromaticPsf, otfMagnitude, radialAverage, type PsfGrid } from './pupil-psf.js';
-import type { ZernikeTerm } from './zernike.js';
+import { zernikeOrders, type ZernikeTerm } from './zernike.js';
 
 /**
  * A typical eye. Higher-order aberrations at a 6 mm pupil from Salmon & van de Pol (2006): mean
@@ -46,6 +46,8 @@ export interface EyeOpticsInput {
   axisDeg: number;
   /** Angular size of one frame pixel at the gaze, arcmin. */
   pixelArcmin: number;
+  /** Measured aberrations replacing the typical eye's (coefficients in µm by ANSI j, over a pupil). */
+  measured?: { pupilDiameterMm: number; coefficientsUm: readonly number[] };
 }
 
 export interface EyeOpticsFigures {
@@ -62,6 +64,10 @@ export interface EyeOpticsFigures {
   defocusByChannelD: { red: number; green: number; blue: number };
   focusWavelengthNm: number;
   psfSampleArcmin: number;
+  /** Whose higher-order aberrations were used. */
+  aberrations: 'measured' | 'typical eye';
+  /** Pupil used for the optics (limited to a measured wavefront's pupil). */
+  opticalPupilDiameterMm: number;
 }
 
 export interface EyeOptics {
@@ -81,7 +87,15 @@ export const MAX_PSF_SIZE = 1024;
  * target lies outside it (a presbyope too near, a myope too far) the residual defocus replaces it.
  */
 function residualLagD(input: EyeOpticsInput): number {
-  return input.defocusD === 0 ? TYPICAL_EYE.residualLagD : 0;
+  return input.defocusD === 0 && !input.measured ? TYPICAL_EYE.residualLagD : 0;
+}
+
+/** Measured terms (j ≥ 3) over the current pupil: evaluated on the inner part of the measured pupil. */
+function measuredTerms(input: EyeOpticsInput): ZernikeTerm[] {
+  const m = input.measured;
+  if (!m) return [];
+  const pupilScale = Math.min(1, input.pupilDiameterMm / m.pupilDiameterMm);
+  return m.coefficientsUm.flatMap((c, j) => (j < 3 || c === 0 ? [] : [{ ...zernikeOrders(j), coefficientUm: c, pupilScale }]));
 }
 
 /** Wavefront terms at a wavelength: the viewer's and typical residual refraction, LCA, and typical higher orders. */
@@ -91,10 +105,10 @@ export function eyeTerms(input: EyeOpticsInput, wavelengthNm: number): ZernikeTe
   const second = zernikeFromPowerVector({
     // + is hyperopic (focus behind the retina); LCA makes short wavelengths more myopic.
     mD: input.defocusD + residualLagD(input) + chromatic,
-    j0D: prescription.j0D + TYPICAL_EYE.residualJ0D,
+    j0D: prescription.j0D + (input.measured ? 0 : TYPICAL_EYE.residualJ0D),
     j45D: prescription.j45D,
   }, input.pupilDiameterMm / 2);
-  return [...second, ...typicalHigherOrderTerms(input.pupilDiameterMm)];
+  return [...second, ...(input.measured ? measuredTerms(input) : typicalHigherOrderTerms(input.pupilDiameterMm))];
 }
 
 /** Sampling of the fine PSF grid: an odd number of samples per frame pixel, fine enough for the shortest wavelength. */
@@ -112,7 +126,11 @@ export function psfGridFor(input: EyeOpticsInput): { grid: PsfGrid; oversample: 
   return { grid: { size, sampleRad }, oversample };
 }
 
-export function computeEyeOptics(input: EyeOpticsInput): EyeOptics {
+export function computeEyeOptics(requested: EyeOpticsInput): EyeOptics {
+  // Measured coefficients say nothing beyond their pupil: a larger pupil is limited to it.
+  const input = requested.measured && requested.pupilDiameterMm > requested.measured.pupilDiameterMm
+    ? { ...requested, pupilDiameterMm: requested.measured.pupilDiameterMm }
+    : requested;
   const { grid, oversample } = psfGridFor(input);
   const channelPsfs = PRIMARY_BANDS.map((band) => {
     const sum = new Float64Array(grid.size * grid.size);
@@ -146,6 +164,8 @@ export function computeEyeOptics(input: EyeOpticsInput): EyeOptics {
       encircledEnergy80DiameterArcmin: encircledEnergyDiameterArcmin(mono, grid, 0.8),
       defocusByChannelD: { red: channelDefocus(0), green: channelDefocus(1), blue: channelDefocus(2) },
       focusWavelengthNm: FOCUS_WAVELENGTH_NM,
+      aberrations: input.measured ? 'measured' : 'typical eye',
+      opticalPupilDiameterMm: input.pupilDiameterMm,
       psfSampleArcmin: grid.sampleRad * ARCMIN_PER_RAD,
     },
   };

@@ -9,6 +9,11 @@ export interface ZernikeTerm {
   m: number;
   /** Coefficient, µm of wavefront (RMS of the term). */
   coefficientUm: number;
+  /**
+   * For coefficients measured over a larger pupil: the term is evaluated at ρ·pupilScale, with
+   * pupilScale = (pupil radius now) / (radius measured), ≤ 1.
+   */
+  pupilScale?: number;
 }
 
 /** Single index j from (n, m) (ANSI Z80.28). */
@@ -47,6 +52,6 @@ export function zernike(n: number, m: number, rho: number, theta: number): numbe
 /** Wavefront (µm) of a set of terms at a pupil point. */
 export function wavefrontUm(terms: readonly ZernikeTerm[], rho: number, theta: number): number {
   let w = 0;
-  for (const t of terms) w += t.coefficientUm * zernike(t.n, t.m, rho, theta);
+  for (const t of terms) w += t.coefficientUm * zernike(t.n, t.m, rho * (t.pupilScale ?? 1), theta);
   return w;
 }
