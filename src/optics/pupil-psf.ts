@@ -5,7 +5,7 @@
  * same angular grid.
  */
 import { createFft2dPlan, fft2dForward } from './fft2d.js';
-import { wavefrontUm, type ZernikeTerm } from './zernike.js';
+import { compileWavefront, type ZernikeTerm } from './zernike.js';
 
 export interface PsfGrid {
   /** Samples per side (a power of two); the PSF's centre is sample (N/2, N/2). */
@@ -26,13 +26,16 @@ export function monochromaticPsf(pupilDiameterMm: number, wavelengthNm: number, 
   if (radiusMm / pupilStepMm > n / 2) throw new Error('PSF grid too coarse for this pupil: the pupil would alias');
   const data = new Float64Array(2 * n * n);
   const waveUm = wavelengthNm / 1000;
-  for (let y = 0; y < n; y++) {
+  const wavefront = compileWavefront(terms);
+  // Only the pupil's bounding box holds light.
+  const reach = Math.ceil(radiusMm / pupilStepMm) + 1;
+  for (let y = Math.max(0, n / 2 - reach); y < Math.min(n, n / 2 + reach); y++) {
     const py = (y - n / 2) * pupilStepMm;
-    for (let x = 0; x < n; x++) {
+    for (let x = Math.max(0, n / 2 - reach); x < Math.min(n, n / 2 + reach); x++) {
       const px = (x - n / 2) * pupilStepMm;
-      const rho = Math.hypot(px, py) / radiusMm;
+      const rho = Math.sqrt(px * px + py * py) / radiusMm;
       if (rho > 1) continue;
-      const phase = (2 * Math.PI * wavefrontUm(terms, rho, Math.atan2(py, px))) / waveUm;
+      const phase = (2 * Math.PI * wavefront(rho, Math.atan2(py, px))) / waveUm;
       // Pupil centred on sample (n/2, n/2): shift it to the origin so the PSF comes out centred after the shift below.
       const i = 2 * (((y + n / 2) % n) * n + ((x + n / 2) % n));
       data[i] = Math.cos(phase);
@@ -131,13 +134,16 @@ export function encircledEnergyDiameterArcmin(psf: Float64Array, grid: PsfGrid, 
     cx += x * psf[y * n + x];
     cy += y * psf[y * n + x];
   }
-  const radii: [number, number][] = [];
-  for (let y = 0; y < n; y++) for (let x = 0; x < n; x++) radii.push([Math.hypot(x - cx, y - cy), psf[y * n + x]]);
-  radii.sort((a, b) => a[0] - b[0]);
+  // Radial histogram in quarter-sample bins, then the cumulative sum.
+  const binsPerSample = 4;
+  const bins = new Float64Array(Math.ceil(n * Math.SQRT2 * binsPerSample) + 1);
+  for (let y = 0; y < n; y++) for (let x = 0; x < n; x++) {
+    bins[Math.floor(Math.sqrt((x - cx) ** 2 + (y - cy) ** 2) * binsPerSample)] += psf[y * n + x];
+  }
   let acc = 0;
-  for (const [r, v] of radii) {
-    acc += v;
-    if (acc >= fraction) return 2 * r * grid.sampleRad * ((180 / Math.PI) * 60);
+  for (let b = 0; b < bins.length; b++) {
+    acc += bins[b];
+    if (acc >= fraction) return (2 * (b + 1) * grid.sampleRad * ((180 / Math.PI) * 60)) / binsPerSample;
   }
   return n * grid.sampleRad * ((180 / Math.PI) * 60);
 }

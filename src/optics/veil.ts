@@ -1,6 +1,6 @@
 /**
  * Applying stray light beyond 1° (VEIL_FROM_DEG): the glare PSF is smooth away from its centre, so it is convolved at reduced
- * resolution (the frame reduced until its long side is at most 400 px) and expanded back. The
+ * resolution (the frame reduced until its long side is at most 200 px) and expanded back. The
  * scattered fraction comes out of the sharp core, so light is conserved. Beyond the frame's edges
  * the surround is taken to mirror the frame (as in every other convolution here).
  */
@@ -9,7 +9,7 @@ import { expand, reduce } from '../retina/pyramid.js';
 import { applyOtf, otfGridFromKernel } from './apply-otf.js';
 import { GLARE_MAX_DEG, glareKernel, VEIL_FROM_DEG } from './stray-light.js';
 
-const MAX_LOW_RES_SIDE = 400;
+const MAX_LOW_RES_SIDE = 200;
 
 export interface StrayLightInput {
   arcminPerPx: number;

@@ -55,3 +55,29 @@ export function wavefrontUm(terms: readonly ZernikeTerm[], rho: number, theta: n
   for (const t of terms) w += t.coefficientUm * zernike(t.n, t.m, rho * (t.pupilScale ?? 1), theta);
   return w;
 }
+
+/**
+ * The wavefront of a set of terms as a fast function of (ρ, θ): each radial polynomial is expanded
+ * once into powers of ρ (the same values as `wavefrontUm`).
+ */
+export function compileWavefront(terms: readonly ZernikeTerm[]): (rho: number, theta: number) => number {
+  const compiled = terms.filter((t) => t.coefficientUm !== 0).map((t) => {
+    const absM = Math.abs(t.m);
+    const powers: [number, number][] = [];
+    for (let s = 0; s <= (t.n - absM) / 2; s++) {
+      powers.push([((-1) ** s * factorial(t.n - s)) / (factorial(s) * factorial((t.n + absM) / 2 - s) * factorial((t.n - absM) / 2 - s)), t.n - 2 * s]);
+    }
+    const norm = Math.sqrt((2 * (t.n + 1)) / (t.m === 0 ? 2 : 1));
+    return { scale: t.coefficientUm * norm, powers, m: t.m, pupilScale: t.pupilScale ?? 1 };
+  });
+  return (rho, theta) => {
+    let w = 0;
+    for (const c of compiled) {
+      const r = rho * c.pupilScale;
+      let radial = 0;
+      for (const [k, p] of c.powers) radial += k * r ** p;
+      w += c.scale * radial * (c.m > 0 ? Math.cos(c.m * theta) : c.m < 0 ? Math.sin(-c.m * theta) : 1);
+    }
+    return w;
+  };
+}

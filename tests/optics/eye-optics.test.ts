@@ -140,3 +140,21 @@ describe('eye optics for a frame', () => {
     for (const k of optics.kernels) expect(k.kernel.reduce((a, b) => a + b, 0)).toBeCloseTo(1, 5);
   });
 });
+
+describe('Strehl ratio reference', () => {
+  test('the analytic diffraction-limited peak equals the computed perfect PSF peak (Parseval)', async () => {
+    const { diffractionLimitedPeak } = await import('../../src/optics/eye-optics.js');
+    const grid = { size: 128, sampleRad: 555e-9 / (2 * 3e-3) / 2 };
+    const perfect = monochromaticPsf(3, 555, [], grid);
+    expect(diffractionLimitedPeak(3, 555, grid) / perfect.reduce((a, b) => Math.max(a, b), 0)).toBeCloseTo(1, 6);
+  });
+});
+
+describe('compiled wavefront (fast path) against the term-by-term evaluation (slow reference)', () => {
+  test('both give the same wavefront to 1e-12', async () => {
+    const { compileWavefront, wavefrontUm } = await import('../../src/optics/zernike.js');
+    const terms = [{ n: 2, m: 0, coefficientUm: 0.3 }, { n: 3, m: -1, coefficientUm: -0.2 }, { n: 4, m: 0, coefficientUm: 0.1, pupilScale: 0.5 }, { n: 3, m: 3, coefficientUm: 0.05 }];
+    const fast = compileWavefront(terms);
+    for (const [r, t] of [[0, 0], [0.3, 1], [0.9, -2], [1, 3]]) expect(fast(r, t)).toBeCloseTo(wavefrontUm(terms, r, t), 12);
+  });
+});
