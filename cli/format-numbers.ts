@@ -21,6 +21,10 @@ export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
     ['accommodation demand / supplied', `${f(e.accommodationDemandD)} D / ${f(e.accommodationD)} D`],
     ['residual defocus', `${f(e.defocusD)} D${e.astigmatismD ? `, cylinder ${f(e.astigmatismD)} D, blur strength ${f(e.blurStrengthD)} D` : ''}`],
     ['blur circle', `${f(e.blurCircleArcmin)}′`],
+    ['optics at 555 nm', `Strehl ${f(n.optics.strehlRatio, 3)}, MTF ${f(n.optics.mtfAt5Cpd)} / ${f(n.optics.mtfAt10Cpd)} / ${f(n.optics.mtfAt20Cpd)} / ${f(n.optics.mtfAt30Cpd)} at 5/10/20/30 cpd (${n.optics.aberrations})`],
+    ['encircled energy 50 % / 80 %', `${f(n.optics.encircledEnergy50DiameterArcmin, 1)}′ / ${f(n.optics.encircledEnergy80DiameterArcmin, 1)}′ diameter`],
+    ['defocus by channel (R / G / B)', `${f(n.optics.defocusByChannelD.red)} / ${f(n.optics.defocusByChannelD.green)} / ${f(n.optics.defocusByChannelD.blue)} D (focus for ${n.optics.focusWavelengthNm} nm)`],
+    ['stray light 1°–30°', `${f(100 * n.optics.scatteredFraction1To30Deg, 1)} % of a point's light (CIE glare)`],
     ['optical limit (mean MTF = 0.1)', `${f(e.opticalCutoffCpd, 1)} cpd`],
   ];
   const width = Math.max(...rows.map(([k]) => k.length));
