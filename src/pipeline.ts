@@ -13,6 +13,7 @@ import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js'
 import { applyOtf, otfGridFromKernel } from './optics/apply-otf.js';
 import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optics/eye-optics.js';
 import { addStrayLight } from './optics/veil.js';
+import { applyHeadsetLens } from './optics/headset-lens.js';
 import { scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
@@ -234,12 +235,18 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   const { numbers, optics } = deriveNumbers(ctx, size, adapting, field.scotopicToPhotopic);
   const { eye } = numbers;
 
+  let shown = frame;
+  if (setup.display.kind === 'headset' && setup.display.lensSharpness) {
+    onStage('optics: headset lens');
+    shown = applyHeadsetLens(frame, setup.display.lensSharpness, ctx.projection, viewMap);
+  }
+
   onStage('optics');
   const retinalImage = createLinearRgb(frame.width, frame.height);
   // All channels share one tile size: kernels are padded to the largest.
   const largest = Math.max(...optics.kernels.map((k) => k.size));
   const grids = optics.kernels.map((k) => otfGridFromKernel(frame.width, frame.height, padKernel(k.kernel, k.size, largest), largest));
-  applyOtf([0, 1, 2].map((c) => channelPlane(frame, c as 0 | 1 | 2)), retinalImage.planes, grids);
+  applyOtf([0, 1, 2].map((c) => channelPlane(shown, c as 0 | 1 | 2)), retinalImage.planes, grids);
   onStage('optics: stray light');
   addStrayLight(retinalImage, { arcminPerPx: numbers.display.arcminPerFramePxAtGaze, ageYears: setup.viewer.ageYears, pigmentation: setup.viewer.eyePigmentation });
 

@@ -58,6 +58,17 @@ export const headsetDecl: ObjectDecl = {
         },
       },
     },
+    lensSharpness: {
+      type: 'object', doc: 'How sharp the headset lens is across the field: MTF50 (the frequency it passes at 50 % contrast) at a few field angles from the lens axis, interpolated linearly. Omit for a perfect lens.',
+      fields: {
+        fieldAnglesDeg: { type: 'list', maxItems: 16, item: { type: 'number', unit: '°', minimum: 0, maximum: 85 }, doc: 'Field angles from the lens axis, increasing.' },
+        mtf50Cpd: { type: 'list', maxItems: 16, item: { type: 'number', unit: 'cpd', minimum: 0.5, maximum: 200 }, doc: 'The lens\'s MTF50 at each field angle.' },
+      },
+    },
+    opticalTransmission: {
+      type: 'number', unit: '', minimum: 0.01, maximum: 1, default: 1,
+      doc: 'Share of the panel\'s light the headset optics pass; multiplies peakLuminanceCdM2 and blackLuminanceCdM2.',
+    },
     ...luminance,
   },
 };

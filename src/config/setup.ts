@@ -25,6 +25,10 @@ export interface HeadsetDisplay {
   /** Distance of the virtual image, given or derived from `lens`. */
   focalDistanceM: number;
   lens?: HeadsetLens;
+  /** MTF50 of the headset lens by field angle; undefined for a perfect lens. */
+  lensSharpness?: { fieldAnglesDeg: number[]; mtf50Cpd: number[] };
+  /** Share of the panel's light passed by the optics; already applied to the luminances below. */
+  opticalTransmission: number;
   peakLuminanceCdM2: number;
   blackLuminanceCdM2: number;
 }

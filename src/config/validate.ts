@@ -169,10 +169,25 @@ function checkDisplay(raw: Json, problems: ConfigProblem[]): Display | undefined
     resolvedLens = { focalLengthMm: lens.focalLengthMm!, screenDistanceMm: lens.screenDistanceMm!, eyeReliefMm: lens.eyeReliefMm };
     focalDistanceM = virtualImageDistanceM(resolvedLens);
   }
+  const sharpness = d.lensSharpness as { fieldAnglesDeg?: number[]; mtf50Cpd?: number[] } | undefined;
+  let lensSharpness: { fieldAnglesDeg: number[]; mtf50Cpd: number[] } | undefined;
+  if (sharpness && (sharpness.fieldAnglesDeg || sharpness.mtf50Cpd)) {
+    const angles = sharpness.fieldAnglesDeg ?? [];
+    const mtf = sharpness.mtf50Cpd ?? [];
+    if (angles.length === 0 || angles.length !== mtf.length) {
+      problems.push({ path: 'display.lensSharpness', received: raw.lensSharpness, expected: 'fieldAnglesDeg and mtf50Cpd lists of the same, non-zero length' });
+    } else if (angles.some((a, i) => i > 0 && a <= angles[i - 1])) {
+      problems.push({ path: 'display.lensSharpness.fieldAnglesDeg', received: angles, expected: 'increasing field angles' });
+    } else lensSharpness = { fieldAnglesDeg: angles, mtf50Cpd: mtf };
+  }
+  if (problems.length > before) return undefined;
+  const transmission = d.opticalTransmission as number;
   return {
     kind, resolutionPx: resolution, fieldOfViewDeg: d.fieldOfViewDeg as [number, number], focalDistanceM: focalDistanceM!,
     ...(resolvedLens ? { lens: resolvedLens } : {}),
-    peakLuminanceCdM2: d.peakLuminanceCdM2 as number, blackLuminanceCdM2: d.blackLuminanceCdM2 as number,
+    ...(lensSharpness ? { lensSharpness } : {}),
+    opticalTransmission: transmission,
+    peakLuminanceCdM2: (d.peakLuminanceCdM2 as number) * transmission, blackLuminanceCdM2: (d.blackLuminanceCdM2 as number) * transmission,
   };
 }
 

@@ -27,6 +27,7 @@ export function modelsUsed(setup: Setup, acuity: { name: string; summary: string
     { stage: 'defocus', name: 'residual-defocus', summary: 'demand 1/d + spherical equivalent, supplied within 0…amplitude, no lag; cylinder adds as blur strength', source: 'standard optics; blur strength after Thibos et al. (2004)', status: 'proposal' },
     { stage: 'optics', name: 'wavefront-psf', summary: 'PSF = |FFT(P·exp(i2πW/λ))|² from ANSI Zernike terms: the viewer’s residual defocus and cylinder (power vectors), typical higher-order aberrations, 3 wavelengths per primary with the eye’s LCA; binned to frame pixels and applied by tiled FFT at the gaze’s pixel scale', source: 'Goodman (Fourier optics); ANSI Z80.28; Thibos et al. (2004) power vectors; Thibos et al. (1992) chromatic eye; Salmon & van de Pol (2006)', status: 'published' },
     { stage: 'optics', name: 'cie-disability-glare', summary: `stray light beyond 1° as a veil: 10/θ³ + [5/θ² + 0.1p/θ][1 + (A/62.5)⁴] + 0.0025p, convolved at reduced resolution; the scattered fraction comes out of the core (age ${setup.viewer.ageYears}, p = ${setup.viewer.eyePigmentation})`, source: 'CIE 146/147:2002, CIE 180:2010; applied from 1° (our proposal)', status: 'published' },
+    ...(setup.display.kind === 'headset' && setup.display.lensSharpness ? [{ stage: 'optics', name: 'headset-lens-blur', summary: 'the lens MTF50 by field angle, interpolated, as a Gaussian blur applied before the eye', source: 'setup; Gaussian form our simplification', status: 'proposal' as const }] : []),
     ...(setup.viewer.wavefront ? [{ stage: 'optics', name: 'measured-wavefront', summary: `the viewer's measured Zernike coefficients over ${setup.viewer.wavefront.pupilDiameterMm} mm replace the typical eye`, source: 'setup (ANSI Z80.28 order)', status: 'published' as const }] : []),
     ...(setup.viewer.wavefront ? [] : [{ stage: 'optics', name: 'typical-eye', summary: 'SA 0.13 µm, vertical coma and trefoil 0.2145 µm each (higher-order RMS 0.33 µm) at 6 mm (scaled r^n); residual lag 0.3 D and cylinder 0.4 D calibrated to Watson (2013); focus for 570 nm; band weights per primary', source: 'Salmon & van de Pol (2006); calibration against Watson (2013)', status: 'proposal' as const }]),
     { stage: 'retina', name: acuity.name, summary: acuity.summary, source: acuity.source, status: 'published' },
@@ -61,7 +62,7 @@ export function numbersReport(setup: Setup, numbers: DerivedNumbers, acuity: { n
       ...display,
       ...(setup.display.kind === 'screen'
         ? { widthMm: setup.display.widthMm, heightMm: setup.display.heightMm, viewingDistanceMm: setup.display.viewingDistanceMm, eyeOffsetMm: setup.display.eyeOffsetMm }
-        : { lens: setup.display.lens }),
+        : { lens: setup.display.lens, lensSharpness: setup.display.lensSharpness, opticalTransmission: setup.display.opticalTransmission }),
       peakLuminanceCdM2: setup.display.peakLuminanceCdM2,
       blackLuminanceCdM2: setup.display.blackLuminanceCdM2,
     },

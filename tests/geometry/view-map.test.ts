@@ -47,7 +47,7 @@ describe('flat screen geometry', () => {
 });
 
 describe('headset eye buffer (rectilinear)', () => {
-  const headset: HeadsetDisplay = { kind: 'headset', resolutionPx: [1600, 1600], fieldOfViewDeg: [100, 100], focalDistanceM: 1.3, peakLuminanceCdM2: 100, blackLuminanceCdM2: 0 };
+  const headset: HeadsetDisplay = { kind: 'headset', resolutionPx: [1600, 1600], fieldOfViewDeg: [100, 100], focalDistanceM: 1.3, opticalTransmission: 1, peakLuminanceCdM2: 100, blackLuminanceCdM2: 0 };
   const p = projectionFor(headset, 1600, 1600);
 
   test('the field of view is the stated one (fx = (W/2)/tan(FOV/2), common practice)', () => {
