@@ -11,6 +11,7 @@ import { readInputBytes, readSetupJson } from '../src/io/read-input.js';
 import { prepareOutputFolder, writeOutputsAtomically } from '../src/io/write-outputs.js';
 import { computeNumbers } from '../src/pipeline.js';
 import { proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
+import type { DepthUnit } from '../src/io/decode-depth.js';
 import { labelSummary, numbersReport } from '../src/report/build-report.js';
 import { CAUTION_SHORT } from '../src/report/cautions.js';
 import { EXIT } from './exit-codes.js';
@@ -90,20 +91,24 @@ export function buildProgram(): Command {
     .option('-q, --quiet', 'no progress on stderr')
     .option('--json', 'print report.json on stdout and nothing else')
     .option('-l, --labels <file>', 'labels file with the text runs to judge (default: <frame>.labels.json beside the frame, if there is one)')
+    .option('-d, --depth <file>', 'depth map: a 16-bit greyscale PNG of distances from the eye, same size as the frame (0 = none)')
+    .addOption(new Option('--depth-unit <unit>', 'unit of the depth map values').choices(['mm', 'cm', 'm']).default('mm'))
     .addHelpText('after', `
 Examples:
   $ eyeproof proof sample-scenes/ferry-console.png
   $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
-  $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold`)
-    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string }) => {
+  $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold
+  $ eyeproof proof passthrough.png --setup headset-wide --depth passthrough-depth.png --depth-unit mm`)
+    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit }) => {
       const { setup, source } = await resolveSetup(opts);
       const bytes = await readInputBytes(frame, 'the frame');
       const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
       const labelsFile = opts.labels ?? (existsSync(besideFrame) ? besideFrame : undefined);
       const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file')) } : undefined;
-      await prepareOutputFolder(opts.out, [frame, opts.setup ?? '', opts.viewer ?? '', labelsFile ?? ''].filter(Boolean), PROOF_OUTPUT_NAMES);
+      const depth = opts.depth ? { file: opts.depth, bytes: await readInputBytes(opts.depth, 'the depth map'), unit: opts.depthUnit } : undefined;
+      await prepareOutputFolder(opts.out, [frame, opts.setup ?? '', opts.viewer ?? '', labelsFile ?? '', opts.depth ?? ''].filter(Boolean), PROOF_OUTPUT_NAMES);
       const quiet = Boolean(opts.quiet || opts.json);
-      const { files, report, result } = await proofFrame(bytes, frame, setup, source, progress(quiet), labels);
+      const { files, report, result } = await proofFrame(bytes, frame, setup, source, progress(quiet), labels, depth);
       const written = await writeOutputsAtomically(opts.out, files);
       if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       if (quiet) return;

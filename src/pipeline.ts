@@ -14,6 +14,8 @@ import { applyOtf, otfGridFromKernel } from './optics/apply-otf.js';
 import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optics/eye-optics.js';
 import { addStrayLight } from './optics/veil.js';
 import { applyHeadsetLens } from './optics/headset-lens.js';
+import { depthBlurSigmaPx } from './optics/depth-blur.js';
+import { blurVariable, maxPyramidLevels, planLevelBlend } from './retina/variable-blur.js';
 import { scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
@@ -76,6 +78,8 @@ interface Context {
   projection: Projection;
   gazePx: [number, number];
   model: AcuityModel;
+  /** Distance of what is seen at the gaze, from a depth map, when there is one (m). */
+  gazeDepthM?: number;
 }
 
 function contextFor(setup: Setup, frameSizePx: [number, number]): Context {
@@ -86,6 +90,7 @@ function contextFor(setup: Setup, frameSizePx: [number, number]): Context {
 
 /** Distance from the eye to what it focuses on: the screen point at the gaze, or a headset's virtual image. */
 function focalDistanceM(ctx: Context): number {
+  if (ctx.gazeDepthM !== undefined) return ctx.gazeDepthM;
   const { display } = ctx.setup;
   if (display.kind === 'headset') return display.focalDistanceM;
   const [a, b] = pixelToTan(ctx.projection, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
@@ -206,10 +211,20 @@ export interface ProofResult {
   labels?: LabelVerdict[];
   /** The eye's point-spread functions and optical figures. */
   optics: EyeOptics;
+  /** With a depth map: where the eye focuses and the range of defocus over the frame. */
+  depth?: { focusDistanceM: number; defocusRangeD: [number, number] };
   models: { acuity: AcuityModel };
 }
 
 export type StageListener = (stage: string) => void;
+
+export interface ProofOptions {
+  onStage?: StageListener;
+  /** Text labels to judge. */
+  labels?: readonly Label[];
+  /** Distance from the eye per frame pixel, m (NaN where unknown), for real or pass-through frames. */
+  depthM?: Float32Array;
+}
 
 /** Checks that the frame can be shown on the display: same aspect ratio within 1 %. */
 export function frameFitsDisplay(display: Display, widthPx: number, heightPx: number): boolean {
@@ -218,10 +233,15 @@ export function frameFitsDisplay(display: Display, widthPx: number, heightPx: nu
 }
 
 /** Runs the whole proof of one frame for one eye state. `source` names the setup in error messages. */
-export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage: StageListener = () => {}, labels?: readonly Label[]): ProofResult {
+export function runProof(frame: LinearRgb, setup: Setup, source: string, options: ProofOptions = {}): ProofResult {
+  const { onStage = () => {}, labels, depthM } = options;
   const size: [number, number] = [frame.width, frame.height];
   checkGazeInFrame(setup, frame.width, frame.height, source);
   const ctx = contextFor(setup, size);
+  if (depthM) {
+    const atGaze = depthM[Math.floor(ctx.gazePx[1]) * frame.width + Math.floor(ctx.gazePx[0])];
+    if (atGaze > 0) ctx.gazeDepthM = atGaze;
+  }
 
   onStage('geometry');
   const viewMap = computeViewMap(ctx.projection, ctx.gazePx);
@@ -239,6 +259,14 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
   if (setup.display.kind === 'headset' && setup.display.lensSharpness) {
     onStage('optics: headset lens');
     shown = applyHeadsetLens(frame, setup.display.lensSharpness, ctx.projection, viewMap);
+  }
+  let depth: ProofResult['depth'];
+  if (depthM) {
+    onStage('optics: depth of field');
+    const focusDistanceM = focalDistanceM(ctx);
+    const { sigmaPx, defocusRangeD } = depthBlurSigmaPx({ depthM, focusDistanceM, gazeDefocusD: eye.defocusD, pupilDiameterMm: eye.pupilDiameterMm, arcminPerPx: viewMap.arcminPerPx });
+    shown = blurPlanes(shown, sigmaPx);
+    depth = { focusDistanceM, defocusRangeD };
   }
 
   onStage('optics');
@@ -296,7 +324,15 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, onStage
     };
     verdicts = labels.map((label) => judgeLabel(label, maps));
   }
-  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, optics, models: { acuity: ctx.model } };
+  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, optics, ...(depth ? { depth } : {}), models: { acuity: ctx.model } };
+}
+
+/** Every channel through the spatially varying Gaussian blur of a sigma map (px). */
+function blurPlanes(image: LinearRgb, sigmaPx: Float32Array): LinearRgb {
+  const blend = planLevelBlend(sigmaPx, maxPyramidLevels(image.width, image.height));
+  const out = createLinearRgb(image.width, image.height);
+  image.planes.forEach((p, c) => blurVariable({ width: image.width, height: image.height, data: p }, blend, out.planes[c]));
+  return out;
 }
 
 /** Centres an odd-sized kernel in a larger odd size, zero around it. */

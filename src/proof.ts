@@ -15,6 +15,7 @@ import { projectionFor } from './geometry/projection.js';
 import { proofReport } from './report/build-report.js';
 import { FRAME_MIN_LETTER_PX } from './analysis/letter-size.js';
 import { parseLabels } from './io/read-labels.js';
+import { decodeDepthMap, type DepthUnit } from './io/decode-depth.js';
 import { CAUTION_SHORT } from './report/cautions.js';
 
 export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'psf.png', 'report.json'] as const;
@@ -42,7 +43,13 @@ export interface LabelsInput {
   text: string;
 }
 
-export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}, labelsInput?: LabelsInput): Promise<ProofOutputs> {
+export interface DepthInput {
+  file: string;
+  bytes: Uint8Array;
+  unit: DepthUnit;
+}
+
+export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}, labelsInput?: LabelsInput, depthInput?: DepthInput): Promise<ProofOutputs> {
   onStage('decoding frame');
   const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb);
   if (!frameFitsDisplay(setup.display, image.width, image.height)) {
@@ -51,7 +58,8 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
       `Export the frame at ${w}×${h} (or the same aspect ratio), or give display.resolutionPx the frame's size in the setup.`);
   }
   const labels = labelsInput ? parseLabels(labelsInput.text, labelsInput.file, image.width, image.height) : undefined;
-  const result = runProof(image, setup, setupSource, onStage, labels);
+  const depthM = depthInput ? await decodeDepthMap(depthInput.bytes, depthInput.file, depthInput.unit, image.width, image.height) : undefined;
+  const result = runProof(image, setup, setupSource, { onStage, labels, depthM });
 
   onStage('rendering outputs');
   const caption = setupCaption(setup, result);
@@ -67,7 +75,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
   const f = result.optics.figures;
   const psf = renderPsfPicture(result.optics.channelPsfs, result.optics.grid, f,
     `pupil ${result.numbers.eye.pupilDiameterMm.toFixed(1)} mm · Strehl ${f.strehlRatio.toFixed(3)} · MTF at 10/30 cpd ${f.mtfAt10Cpd.toFixed(2)}/${f.mtfAt30Cpd.toFixed(2)} · 50/80 % energy within ${f.encircledEnergy50DiameterArcmin.toFixed(1)}′/${f.encircledEnergy80DiameterArcmin.toFixed(1)}′ · focused for ${f.focusWavelengthNm} nm`);
-  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file);
+  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file, depthInput ? { file: depthInput.file, unit: depthInput.unit } : undefined);
   const files: OutputFile[] = [
     { name: 'percept.png', bytes: percept },
     { name: 'detail-map.png', bytes: await encodeRgba8Png(detail.rgba, detail.width, detail.height) },

@@ -84,8 +84,11 @@ export function labelSummary(verdicts: readonly LabelVerdict[], view: 'fromGaze'
   return counts;
 }
 
-export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[], labelsFile?: string): Record<string, unknown> {
+export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[], labelsFile?: string, depthFile?: { file: string; unit: string }): Record<string, unknown> {
   const base = numbersReport(setup, result.numbers, result.models.acuity);
+  if (result.depth) {
+    (base.models as ModelEntry[]).push({ stage: 'optics', name: 'depth-of-field', summary: 'extra defocus 1/d − 1/d_gaze per pixel from the depth map, as a Gaussian of σ = blur disk / 4 in quadrature with the PSF at the gaze', source: 'standard optics; Gaussian form our simplification', status: 'proposal' });
+  }
   let minLetter = Infinity;
   for (const v of result.smallestLetterPx) if (v < minLetter) minLetter = v;
   return {
@@ -94,6 +97,7 @@ export function proofReport(setup: Setup, result: ProofResult, frame: { file: st
     frame: { file: frame.file, ...frame.info },
     ...base,
     detailMap: roundNumbers({ smallestLetterPxAtGaze: result.numbers.acuity[0]?.smallestLetterPx, smallestLetterPxMinimum: minLetter }),
+    ...(result.depth && depthFile ? { depth: roundNumbers({ ...depthFile, ...result.depth }) } : {}),
     ...(result.labels ? {
       labels: roundNumbers({
         file: labelsFile,
