@@ -15,6 +15,7 @@ import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optic
 import { addStrayLight } from './optics/veil.js';
 import { applyHeadsetLens } from './optics/headset-lens.js';
 import { depthBlurSigmaPx } from './optics/depth-blur.js';
+import { kernelScales, scaleWeights } from './optics/scale-blend.js';
 import { blurVariable, maxPyramidLevels, planLevelBlend } from './retina/variable-blur.js';
 import { scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
@@ -271,10 +272,31 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, options
 
   onStage('optics');
   const retinalImage = createLinearRgb(frame.width, frame.height);
-  // All channels share one tile size: kernels are padded to the largest.
-  const largest = Math.max(...optics.kernels.map((k) => k.size));
-  const grids = optics.kernels.map((k) => otfGridFromKernel(frame.width, frame.height, padKernel(k.kernel, k.size, largest), largest));
-  applyOtf([0, 1, 2].map((c) => channelPlane(shown, c as 0 | 1 | 2)), retinalImage.planes, grids);
+  const scales = kernelScales(viewMap.arcminPerPx);
+  const opticsInput = {
+    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD,
+    cylinderD: setup.viewer.refraction.cylinderD, axisDeg: setup.viewer.refraction.axisDeg,
+    ...(setup.viewer.wavefront ? { measured: setup.viewer.wavefront } : {}),
+  };
+  const planes = [0, 1, 2].map((c) => channelPlane(shown, c as 0 | 1 | 2));
+  if (scales.length === 1) {
+    filterWithKernels(planes, retinalImage.planes, optics.kernels);
+  } else {
+    // Kernels for a few pixel scales, blended per pixel (see scale-blend.ts).
+    const { lower, upperWeight } = scaleWeights(viewMap.arcminPerPx, scales);
+    const scratch = [0, 1, 2].map(() => new Float32Array(frame.width * frame.height));
+    scales.forEach((pixelArcmin, k) => {
+      filterWithKernels(planes, scratch, computeEyeOptics({ ...opticsInput, pixelArcmin }).kernels);
+      for (let c = 0; c < 3; c++) {
+        const out = retinalImage.planes[c];
+        const src = scratch[c];
+        for (let i = 0; i < out.length; i++) {
+          const w = lower[i] === k ? 1 - upperWeight[i] : lower[i] + 1 === k ? upperWeight[i] : 0;
+          if (w !== 0) out[i] += w * src[i];
+        }
+      }
+    });
+  }
   onStage('optics: stray light');
   addStrayLight(retinalImage, { arcminPerPx: numbers.display.arcminPerFramePxAtGaze, ageYears: setup.viewer.ageYears, pigmentation: setup.viewer.eyePigmentation });
 
@@ -333,6 +355,15 @@ function blurPlanes(image: LinearRgb, sigmaPx: Float32Array): LinearRgb {
   const out = createLinearRgb(image.width, image.height);
   image.planes.forEach((p, c) => blurVariable({ width: image.width, height: image.height, data: p }, blend, out.planes[c]));
   return out;
+}
+
+/** Filters three planes by three kernels (one per channel), sharing one tile size. */
+function filterWithKernels(planes: ReturnType<typeof channelPlane>[], outs: Float32Array[], kernels: { kernel: Float32Array; size: number }[]): void {
+  // All channels share one tile size: kernels are padded to the largest.
+  const largest = Math.max(...kernels.map((k) => k.size));
+  const { width, height } = planes[0];
+  const grids = kernels.map((k) => otfGridFromKernel(width, height, padKernel(k.kernel, k.size, largest), largest));
+  applyOtf(planes, outs, grids);
 }
 
 /** Centres an odd-sized kernel in a larger odd size, zero around it. */
