@@ -92,7 +92,7 @@ const NIGHT: ConsolePalette = {
 };
 
 /** Ferry bridge console for a 27-inch 2560×1440 screen at about 70 cm, in a day or night palette. */
-async function ferryConsole(name: string, c: ConsolePalette): Promise<void> {
+async function ferryConsole(name: string, c: ConsolePalette, banner = false): Promise<void> {
   const s = new Scene(name, 2560, 1440);
   const g = s.g;
   s.rect(0, 0, 2560, 1440, c.background);
@@ -147,6 +147,11 @@ async function ferryConsole(name: string, c: ConsolePalette): Promise<void> {
   s.text('engine-stbd', 'Stbd 1415 rpm · 79 °C', 72, 630, 30, c.value);
   s.text('engine-fuel', 'Fuel 61 % · 212 L/h', 640, 580, 30, c.value);
   s.text('status-bar', 'AIS OK · GPS 2 OK · Gyro OK · Autopilot standby · Log 11.2 kn', 40, 1390, 14, c.caption);
+  if (banner) {
+    // A full-white notification banner across the dark console: the stray-light case.
+    s.rect(700, 1060, 1160, 120, '#ffffff', 12);
+    s.text('banner', 'Drill at 15:00 — muster at station B', 760, 1100, 40, '#101010', true);
+  }
   await s.save();
 }
 
@@ -238,6 +243,7 @@ async function calibrationChart(): Promise<void> {
 
 await ferryConsole('ferry-console', DAY);
 await ferryConsole('ferry-console-night', NIGHT);
+await ferryConsole('ferry-console-banner', NIGHT, true);
 await pickerHeadset();
 await calibrationChart();
 process.stderr.write('sample scenes written\n');

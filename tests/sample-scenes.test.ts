@@ -7,8 +7,8 @@ const dir = join(import.meta.dirname, '..', 'sample-scenes');
 const scenes = readdirSync(dir).filter((f) => f.endsWith('.labels.json'));
 
 describe('sample scenes (demo data)', () => {
-  test('there are the four demo scenes', () => {
-    expect(scenes.sort()).toEqual(['calibration-chart.labels.json', 'ferry-console-night.labels.json', 'ferry-console.labels.json', 'picker-headset.labels.json']);
+  test('there are the five demo scenes', () => {
+    expect(scenes.sort()).toEqual(['calibration-chart.labels.json', 'ferry-console-banner.labels.json', 'ferry-console-night.labels.json', 'ferry-console.labels.json', 'picker-headset.labels.json']);
   });
 
   test.each(scenes)('%s: every label box lies inside its frame and has a letter height', async (file) => {
