@@ -1,4 +1,4 @@
-/** Modulation transfer of the eye's optics: diffraction, the mean human MTF, a defocus disk. */
+/** Modulation transfer of the eye's optics: diffraction and the mean human MTF. */
 
 /** Wavelength at which the mean MTF is stated, nm (Watson 2013). */
 export const MEAN_MTF_WAVELENGTH_NM = 555;
@@ -28,27 +28,6 @@ export function watsonMeanMtf(frequencyCpd: number, pupilDiameterMm: number): nu
   const u = Math.abs(frequencyCpd);
   const diffraction = diffractionMtf(u / diffractionCutoffCpd(d, MEAN_MTF_WAVELENGTH_NM));
   return Math.pow(1 + (u / u1) ** 2, -0.62) * Math.sqrt(diffraction);
-}
-
-/**
- * Bessel function J1 from its integral J1(x) = (1/π)∫₀^π cos(τ − x·sin τ) dτ. The integrand is
- * smooth and periodic, so the midpoint rule converges geometrically once the step count exceeds x.
- */
-export function besselJ1(x: number): number {
-  const steps = 24 + Math.ceil(Math.abs(x) * 1.5);
-  let sum = 0;
-  for (let k = 0; k < steps; k++) {
-    const tau = ((k + 0.5) * Math.PI) / steps;
-    sum += Math.cos(tau - x * Math.sin(tau));
-  }
-  return sum / steps;
-}
-
-/** OTF of a uniform disk of angular diameter b (deg) at frequency f (cpd): 2·J1(πbf)/(πbf); may be negative. */
-export function diskOtf(frequencyCpd: number, diameterDeg: number): number {
-  const x = Math.PI * diameterDeg * Math.abs(frequencyCpd);
-  if (x < 1e-6) return 1;
-  return (2 * besselJ1(x)) / x;
 }
 
 /**
