@@ -10,6 +10,7 @@ import type { Setup } from '../src/config/setup.js';
 import { readInputBytes, readSetupJson } from '../src/io/read-input.js';
 import { prepareOutputFolder, writeOutputsAtomically } from '../src/io/write-outputs.js';
 import { computeNumbers } from '../src/pipeline.js';
+import { acuityModels } from '../src/retina/acuity-model.js';
 import { proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
 import type { DepthUnit } from '../src/io/decode-depth.js';
 import { labelSummary, numbersReport } from '../src/report/build-report.js';
@@ -129,7 +130,7 @@ Examples:
     .action(async (opts: SetupOptions & { json?: boolean }) => {
       const { setup } = await resolveSetup(opts);
       const numbers = computeNumbers(setup);
-      const report = numbersReport(setup, numbers, { name: setup.models.acuity, summary: '', source: '' });
+      const report = numbersReport(setup, numbers, acuityModels[setup.models.acuity]);
       if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
       else process.stdout.write(formatNumbersTable(setup, numbers));
     });

@@ -13,7 +13,7 @@ import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js'
 import { applyOtf, otfGridFromKernel } from './optics/apply-otf.js';
 import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optics/eye-optics.js';
 import { addStrayLight } from './optics/veil.js';
-import { applyHeadsetLens } from './optics/headset-lens.js';
+import { headsetLensSigmaPx } from './optics/headset-lens.js';
 import { depthBlurSigmaPx } from './optics/depth-blur.js';
 import { kernelScales, scaleWeights } from './optics/scale-blend.js';
 import { blurVariable, maxPyramidLevels, planLevelBlend } from './retina/variable-blur.js';
@@ -256,19 +256,26 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, options
   const { numbers, optics } = deriveNumbers(ctx, size, adapting, field.scotopicToPhotopic);
   const { eye } = numbers;
 
-  let shown = frame;
+  // Blurs in front of the eye — the headset lens and depth of field — are Gaussians, so they
+  // combine by adding variances and run as one spatially varying pass.
+  let frontSigma2: Float32Array | undefined;
+  const addSigma = (sigmaPx: Float32Array): void => {
+    frontSigma2 ??= new Float32Array(sigmaPx.length);
+    for (let i = 0; i < sigmaPx.length; i++) frontSigma2[i] += sigmaPx[i] * sigmaPx[i];
+  };
   if (setup.display.kind === 'headset' && setup.display.lensSharpness) {
     onStage('optics: headset lens');
-    shown = applyHeadsetLens(frame, setup.display.lensSharpness, ctx.projection, viewMap);
+    addSigma(headsetLensSigmaPx(setup.display.lensSharpness, ctx.projection, viewMap));
   }
   let depth: ProofResult['depth'];
   if (depthM) {
     onStage('optics: depth of field');
     const focusDistanceM = focalDistanceM(ctx);
     const { sigmaPx, defocusRangeD } = depthBlurSigmaPx({ depthM, focusDistanceM, gazeDefocusD: eye.defocusD, pupilDiameterMm: eye.pupilDiameterMm, arcminPerPx: viewMap.arcminPerPx });
-    shown = blurPlanes(shown, sigmaPx);
+    addSigma(sigmaPx);
     depth = { focusDistanceM, defocusRangeD };
   }
+  const shown = frontSigma2 ? blurPlanes(frame, frontSigma2.map(Math.sqrt)) : frame;
 
   onStage('optics');
   const retinalImage = createLinearRgb(frame.width, frame.height);

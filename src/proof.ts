@@ -63,13 +63,16 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
 
   onStage('rendering outputs');
   const caption = setupCaption(setup, result);
-  const percept = await encodeRgba8Png(linearToRgba8(result.percept), image.width, image.height);
+  const { width, height } = image;
+  const frameRgba = linearToRgba8(image);
+  const perceptRgba = linearToRgba8(result.percept);
+  const percept = await encodeRgba8Png(perceptRgba, width, height);
   const detail = renderDetailMap({
-    frame: image, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
+    width, height, frameRgba, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
     arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: FRAME_MIN_LETTER_PX, labels: result.labels, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
   });
   const compare = renderCompare({
-    frame: image, percept: result.percept, projection: projectionFor(setup.display, image.width, image.height),
+    width, height, frameRgba, perceptRgba, projection: projectionFor(setup.display, width, height),
     gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
   });
   const f = result.optics.figures;

@@ -1,14 +1,12 @@
 /**
  * The headset lens's own blur: its MTF50 at a few field angles, interpolated, taken as a Gaussian
  * blur (MTF(f) = exp(−2π²σ²f²), so σ = sqrt(ln 2 / 2) / (π·MTF50)) and applied to the frame before
- * the eye's optics with the spatially varying pyramid blur. A Gaussian is our simplification of a
+ * the eye's optics with the spatially varying pyramid blur (by the pipeline). A Gaussian is our simplification of a
  * lens MTF given by one number per field angle.
  */
 import type { HeadsetDisplay } from '../config/setup.js';
 import type { ViewMap } from '../geometry/view-map.js';
 import { pixelToTan, type Projection } from '../geometry/projection.js';
-import { createLinearRgb, type LinearRgb } from '../image/plane.js';
-import { blurVariable, maxPyramidLevels, planLevelBlend } from '../retina/variable-blur.js';
 import { radToDeg } from '../units.js';
 
 /** Gaussian σ (deg) whose MTF is 0.5 at `mtf50Cpd`. */
@@ -26,8 +24,9 @@ export function lensMtf50At(fieldDeg: number, sharpness: NonNullable<HeadsetDisp
   return m[m.length - 1];
 }
 
-export function applyHeadsetLens(frame: LinearRgb, sharpness: NonNullable<HeadsetDisplay['lensSharpness']>, projection: Projection, viewMap: ViewMap): LinearRgb {
-  const { width, height } = frame;
+/** Gaussian σ (frame px) of the lens blur at every pixel, from its field angle off the lens axis. */
+export function headsetLensSigmaPx(sharpness: NonNullable<HeadsetDisplay['lensSharpness']>, projection: Projection, viewMap: ViewMap): Float32Array {
+  const { width, height } = viewMap;
   const sigmaPx = new Float32Array(width * height);
   for (let y = 0; y < height; y++) {
     for (let x = 0; x < width; x++) {
@@ -37,8 +36,5 @@ export function applyHeadsetLens(frame: LinearRgb, sharpness: NonNullable<Headse
       sigmaPx[i] = (gaussianSigmaDegForMtf50(lensMtf50At(fieldDeg, sharpness)) * 60) / viewMap.arcminPerPx[i];
     }
   }
-  const blend = planLevelBlend(sigmaPx, maxPyramidLevels(width, height));
-  const out = createLinearRgb(width, height);
-  frame.planes.forEach((p, c) => blurVariable({ width, height, data: p }, blend, out.planes[c]));
-  return out;
+  return sigmaPx;
 }

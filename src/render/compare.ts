@@ -5,16 +5,17 @@
 import type { SKRSContext2D } from '@napi-rs/canvas';
 import type { Projection } from '../geometry/projection.js';
 import { isInsideFrame, pixelAtFieldPoint } from '../geometry/view-map.js';
-import type { LinearRgb } from '../image/plane.js';
-import { linearToRgba8 } from '../io/encode-png.js';
 import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
 
 /** Eccentricities marked by rings, deg. */
 export const RING_ECCENTRICITIES_DEG = [2, 5, 10, 20, 30] as const;
 
 export interface CompareInput {
-  frame: LinearRgb;
-  percept: LinearRgb;
+  width: number;
+  height: number;
+  /** The frame and the percept as 8-bit sRGB RGBA (encoded once by the caller). */
+  frameRgba: Uint8ClampedArray;
+  perceptRgba: Uint8ClampedArray;
   projection: Projection;
   gazePx: [number, number];
   caption: string;
@@ -24,16 +25,15 @@ export interface CompareInput {
 }
 
 export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; width: number; height: number } {
-  const { frame, percept, gazePx } = input;
-  const { width, height } = frame;
+  const { gazePx, width, height } = input;
   const gap = Math.max(8, Math.round(width / 200));
   const text = Math.max(13, Math.round(width / 90));
   const header = Math.round(text * 4.4);
   const { canvas, g } = newCanvas(2 * width + gap, height + header);
   g.fillStyle = '#15171c';
   g.fillRect(0, 0, canvas.width, canvas.height);
-  putRgba(g, linearToRgba8(frame), width, height, 0, header);
-  putRgba(g, linearToRgba8(percept), width, height, width + gap, header);
+  putRgba(g, input.frameRgba, width, height, 0, header);
+  putRgba(g, input.perceptRgba, width, height, width + gap, header);
   for (const offsetX of [0, width + gap]) {
     g.save();
     g.beginPath();

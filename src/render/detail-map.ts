@@ -6,13 +6,14 @@
 import type { SKRSContext2D } from '@napi-rs/canvas';
 import type { LabelVerdict } from '../analysis/labels.js';
 import { READING_RESERVE } from '../analysis/letter-size.js';
-import type { LinearRgb } from '../image/plane.js';
-import { linearToRgba8 } from '../io/encode-png.js';
 import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
 import { logScale, niceLogTicks, viridisTable } from './colour-scale.js';
 
 export interface DetailMapInput {
-  frame: LinearRgb;
+  width: number;
+  height: number;
+  /** The frame as 8-bit sRGB RGBA, shown faintly under the map. */
+  frameRgba: Uint8ClampedArray;
   smallestLetterPx: Float32Array;
   gazePx: [number, number];
   arcminPerPxAtGaze: number;
@@ -27,8 +28,7 @@ export interface DetailMapInput {
 const FRAME_UNDERLAY = 0.2;
 
 export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArray; width: number; height: number } {
-  const { frame, smallestLetterPx: letter, gazePx } = input;
-  const { width, height } = frame;
+  const { smallestLetterPx: letter, gazePx, width, height, frameRgba } = input;
   const n = width * height;
   let min = Infinity;
   let max = 0;
@@ -44,7 +44,6 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
   max = Math.max(min * 2, max);
   const scale = logScale(min, max);
   const lut = viridisTable();
-  const frameRgba = linearToRgba8(frame);
   const rgba = new Uint8ClampedArray(n * 4);
   for (let i = 0; i < n; i++) {
     const grey = (frameRgba[i * 4] + frameRgba[i * 4 + 1] + frameRgba[i * 4 + 2]) / 3;
