@@ -23,12 +23,14 @@ export interface AccommodationState {
 
 /**
  * Our proposal on standard optics: demand A_req = 1/d + E (E the uncorrected spherical equivalent,
- * + for hyperopia); the eye supplies A = clamp(A_req, 0, amplitude); the residual is A_req − A.
- * No lag of accommodation is modelled (a few tenths of a diopter at near targets is common practice).
+ * + for hyperopia). In sustained viewing people use only part of their amplitude — common practice
+ * keeps a third to a half in reserve — so the eye supplies A = clamp(A_req, 0, (1 − reserve)·amplitude);
+ * the residual is A_req − A. Where the eye focuses within that range is left to the optics (the best
+ * white-light image), not a fixed lag.
  */
-export function accommodationFor(targetDistanceM: number, sphericalEquivalentD: number, amplitudeD: number): AccommodationState {
+export function accommodationFor(targetDistanceM: number, sphericalEquivalentD: number, amplitudeD: number, reserve = 0): AccommodationState {
   const demandD = 1 / targetDistanceM + sphericalEquivalentD;
-  const accommodationD = Math.min(amplitudeD, Math.max(0, demandD));
+  const accommodationD = Math.min((1 - reserve) * amplitudeD, Math.max(0, demandD));
   return { demandD, accommodationD, defocusD: demandD - accommodationD };
 }
 

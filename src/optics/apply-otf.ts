@@ -157,3 +157,30 @@ export function applyOtf(inputs: readonly Plane[], outs: readonly Float32Array[]
     pair.forEach((job, part) => store(job, part as 0 | 1));
   }
 }
+
+/**
+ * The transfer that turns what a reference eye does into what another eye does: sim / ref per bin,
+ * the modulus never above 1 (a display cannot sharpen what the reference eye will blur). The
+ * reference kernel is taken as point-symmetric (a real transfer); where it nearly vanishes the
+ * quotient is bounded by the same rule.
+ */
+export function relativeOtfGrid(sim: OtfGrid, ref: OtfGrid): OtfGrid {
+  if (sim.fftWidth !== ref.fftWidth || sim.fftHeight !== ref.fftHeight) throw new Error('relativeOtfGrid: grids of one size only');
+  const n = sim.transfer.length;
+  const transfer = new Float32Array(n);
+  const transferIm = sim.transferIm ? new Float32Array(n) : undefined;
+  for (let i = 0; i < n; i++) {
+    const r = ref.transfer[i];
+    const denominator = Math.sign(r || 1) * Math.max(Math.abs(r), 1e-3);
+    let re = sim.transfer[i] / denominator;
+    let im = sim.transferIm ? sim.transferIm[i] / denominator : 0;
+    const modulus = Math.hypot(re, im);
+    if (modulus > 1) {
+      re /= modulus;
+      im /= modulus;
+    }
+    transfer[i] = re;
+    if (transferIm) transferIm[i] = im;
+  }
+  return { fftWidth: sim.fftWidth, fftHeight: sim.fftHeight, marginPx: Math.max(sim.marginPx, ref.marginPx), transfer, ...(transferIm ? { transferIm } : {}) };
+}

@@ -10,6 +10,8 @@ export interface EyeState {
   /** True when the viewer's age lay outside 20–83 years and the pupil formula used the nearest end. */
   pupilAgeClamped: boolean;
   accommodationAmplitudeD: number;
+  /** Accommodation available for sustained viewing: the amplitude less the reserve, D. */
+  sustainedAccommodationD: number;
   /** Vergence of the display (or virtual image) at the eye, D. */
   targetVergenceD: number;
   accommodationDemandD: number;
@@ -30,6 +32,8 @@ export interface EyeStateInput {
   adaptingFieldDeg: number;
   /** Distance from the eye to what it focuses on: the screen at the gaze, or a headset's virtual image. */
   focalDistanceM: number;
+  /** Share of the amplitude kept in reserve in sustained viewing. */
+  accommodationReserve: number;
 }
 
 export function computeEyeState(input: EyeStateInput): EyeState {
@@ -40,7 +44,7 @@ export function computeEyeState(input: EyeStateInput): EyeState {
   const amplitudeD = hofstetterAmplitudeD(viewer.ageYears);
   const { sphereD, cylinderD } = viewer.refraction;
   // The eye focuses for the spherical equivalent (sphere + half the cylinder), the circle of least confusion.
-  const state = accommodationFor(input.focalDistanceM, sphereD + cylinderD / 2, amplitudeD);
+  const state = accommodationFor(input.focalDistanceM, sphereD + cylinderD / 2, amplitudeD, input.accommodationReserve);
   const astigmatismD = Math.abs(cylinderD);
   // Blur strength: length of the power vector (Thibos et al. 2004; from memory), J magnitude = |C|/2.
   const blurStrengthD = Math.hypot(state.defocusD, astigmatismD / 2);
@@ -49,6 +53,7 @@ export function computeEyeState(input: EyeStateInput): EyeState {
     pupilSource: viewer.pupilDiameterMm === 'auto' ? 'watson-yellott-2012' : 'setup',
     pupilAgeClamped: pupil.ageClamped,
     accommodationAmplitudeD: amplitudeD,
+    sustainedAccommodationD: (1 - input.accommodationReserve) * amplitudeD,
     targetVergenceD: 1 / input.focalDistanceM,
     accommodationDemandD: state.demandD,
     accommodationD: state.accommodationD,

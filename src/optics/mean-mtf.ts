@@ -29,25 +29,3 @@ export function watsonMeanMtf(frequencyCpd: number, pupilDiameterMm: number): nu
   const diffraction = diffractionMtf(u / diffractionCutoffCpd(d, MEAN_MTF_WAVELENGTH_NM));
   return Math.pow(1 + (u / u1) ** 2, -0.62) * Math.sqrt(diffraction);
 }
-
-/**
- * Lowest frequency (cpd) at which a transfer function falls to `threshold`, by bisection after a
- * coarse scan; `upperCpd` when it never does below that.
- */
-export function frequencyAtTransfer(transfer: (fCpd: number) => number, threshold: number, upperCpd = 200): number {
-  const step = 0.25;
-  let lo = 0;
-  for (let f = step; f <= upperCpd; f += step) {
-    if (transfer(f) <= threshold) {
-      let hi = f;
-      for (let i = 0; i < 40; i++) {
-        const mid = (lo + hi) / 2;
-        if (transfer(mid) <= threshold) hi = mid;
-        else lo = mid;
-      }
-      return (lo + hi) / 2;
-    }
-    lo = f;
-  }
-  return upperCpd;
-}
