@@ -8,7 +8,8 @@ import { createLinearRgb, type Plane } from '../src/image/plane.js';
 import { applyOtf, createOtfGrid } from '../src/optics/apply-otf.js';
 import { runProof } from '../src/pipeline.js';
 import { expand, reduce } from '../src/retina/pyramid.js';
-import { blurVariable, maxPyramidLevels, planLevelBlend } from '../src/retina/variable-blur.js';
+import { buildLadder, createLadderSums, createLadderWorkspace, evaluateLadder, mapPyramid } from '../src/image/ladder-pyramid.js';
+import { sharpLowpassCoefficients } from '../src/retina/sharp-lowpass.js';
 
 const W = 1920;
 const H = 1080;
@@ -41,12 +42,18 @@ const add = (name: string, fn: () => void): void => {
   rows.push([name, time(fn)]);
 };
 
-// Variable blur: cost must not grow with the blur (pyramid), so small and large blurs cost alike.
-for (const maxSigma of [2, 16, 128]) {
-  const sigma = Float32Array.from({ length: W * H }, (_, i) => (maxSigma * ((i % W) + 1)) / W);
-  const blend = planLevelBlend(sigma, maxPyramidLevels(W, H));
+// Spatially varying low-pass from a half-octave ladder: building it depends only on the plane; the
+// evaluation's cost must not grow with the blur, so small and large cutoffs cost alike.
+const workspace = createLadderWorkspace(W, H);
+add('ladder build, one plane', () => buildLadder(plane.data, W, H, workspace));
+const ladder = buildLadder(plane.data, W, H, workspace);
+const sums = createLadderSums(ladder);
+for (const finestPeriodPx of [4, 32, 256]) {
+  // log2 cutoff (cycles/px) falling across the frame from 1/4 to 1/finestPeriodPx.
+  const log2Cutoff = Float32Array.from({ length: W * H }, (_, i) => -2 - Math.log2(finestPeriodPx / 4) * ((i % W) / W));
+  const coefficients = sharpLowpassCoefficients(mapPyramid(log2Cutoff, ladder), ladder.levels);
   const out = new Float32Array(W * H);
-  add(`variable blur, one plane, σ up to ${maxSigma} px`, () => blurVariable(plane, blend, out));
+  add(`sharp low-pass from the ladder, one plane, periods down to 1/${finestPeriodPx} px⁻¹`, () => evaluateLadder(ladder, coefficients, out, sums, workspace));
 }
 
 // Optics: tiled overlap-save FFT against one whole-frame transform padded to a power of two.

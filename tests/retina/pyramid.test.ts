@@ -1,7 +1,6 @@
 import { describe, expect, test } from 'vitest';
 import type { Plane } from '../../src/image/plane.js';
 import { expand, levelSigmaPx, reduce } from '../../src/retina/pyramid.js';
-import { blurVariable, planLevelBlend, RESPONSE_AT_CUTOFF, sigmaForCutoffPx } from '../../src/retina/variable-blur.js';
 
 function throughLevel(src: Plane, level: number): Float32Array {
   const sizes: [number, number][] = [[src.width, src.height]];
@@ -69,40 +68,5 @@ describe('Gaussian pyramid (Burt & Adelson 1983) against an explicit Gaussian', 
       dev += (ref[i] - mean) ** 2;
     }
     expect(Math.sqrt(err / dev)).toBeLessThan(0.05);
-  });
-});
-
-describe('variable blur', () => {
-  test('the response at the cutoff is 5 % and a third of it keeps 72 % (Gaussian MTF exp(−2π²σ²f²), derived)', () => {
-    const f = 0.1;
-    const s = sigmaForCutoffPx(f);
-    expect(Math.exp(-2 * Math.PI ** 2 * s * s * f * f)).toBeCloseTo(RESPONSE_AT_CUTOFF, 10);
-    expect(Math.exp(-2 * Math.PI ** 2 * s * s * (f / 3) ** 2)).toBeCloseTo(0.05 ** (1 / 9), 10);
-  });
-
-  test('a uniform plane stays uniform whatever the blur map (conservation of the mean)', () => {
-    const width = 97;
-    const height = 61;
-    const data = new Float32Array(width * height).fill(0.42);
-    const sigma = Float32Array.from({ length: width * height }, (_, i) => ((i * 7919) % 23) / 2);
-    const out = blurVariable({ width, height, data }, planLevelBlend(sigma, 5), new Float32Array(width * height));
-    for (const v of out) expect(v).toBeCloseTo(0.42, 5);
-  });
-});
-
-describe('level blend table (fast path) against the direct formula (slow reference)', () => {
-  test('the tabulated blend matches the per-pixel formula to 1e-3 in weight', () => {
-    const sigmas = Array.from({ length: 9 }, (_, k) => levelSigmaPx(k));
-    const g = (s: number, f: number): number => Math.exp(-2 * Math.PI * Math.PI * s * s * f * f);
-    const test = Float32Array.from([0.05, 0.3, 0.77, 1.0, 1.41, 2.2, 3.16, 5, 9.9, 30, 100, 200]);
-    const blend = planLevelBlend(test, 8);
-    test.forEach((s, i) => {
-      let k = 0;
-      while (sigmas[k + 1] <= s) k++;
-      const f = Math.min((0.5 * Math.sqrt(Math.log(1 / RESPONSE_AT_CUTOFF) / 2)) / (Math.PI * s), 0.5);
-      const t = Math.min(1, Math.max(0, (g(sigmas[k], f) - g(s, f)) / (g(sigmas[k], f) - g(sigmas[k + 1], f))));
-      const ours = blend.lowerLevel[i] + blend.upperWeight[i];
-      expect(Math.abs(ours - (k + t))).toBeLessThan(1e-3);
-    });
   });
 });
