@@ -69,10 +69,18 @@ const GREEN: [number, number, number] = [0.05, 0.45, 0.05];
 const GREY: [number, number, number] = [0.2, 0.2, 0.2];
 
 describe('colour loss with eccentricity (our proposal on Mullen 1991; Mullen, Sakurai & Chu 2005; Hansen et al. 2009)', () => {
-  test('red–green resolution falls twice as fast as blue–yellow with eccentricity (Mullen 1991 vs Mullen & Kingdom 2002)', () => {
-    // f(e) = f0·2.3/(s·e + 2.3): at e = 2.3°, red–green is at 1/3 of its foveal value, blue–yellow at 1/2.
-    expect(chromaticCutoffCpd('red-green', 2.3, PARAMS, 100) / 11).toBeCloseTo(1 / 3, 10);
-    expect(chromaticCutoffCpd('blue-yellow', 2.3, PARAMS, 100) / 10).toBeCloseTo(1 / 2, 10);
+  test('red–green sensitivity falls twice as steeply as blue–yellow with eccentricity (Mullen 1991 vs Mullen & Kingdom 2002, on Geisler & Perry 1998 α = 0.106, e2 = 2.3°)', () => {
+    // Threshold ∝ exp(s·α·f·e/e2): at the cutoff of each channel, the eccentricity term of red–green
+    // is twice that of blue–yellow at the same frequency and eccentricity.
+    const f0 = (ch: 'red-green' | 'blue-yellow'): number => (ch === 'red-green' ? 11 : 10);
+    const logThresholdRise = (ch: 'red-green' | 'blue-yellow', e: number): number => {
+      const fc = chromaticCutoffCpd(ch, e, PARAMS, 100);
+      const alphaC = Math.log(64) / f0(ch);
+      // At the cutoff the threshold is 1: ln(1/CT0) = α_c·f + rise ⇒ rise = ln 64 − α_c·f.
+      return (Math.log(64) - alphaC * fc) / fc;
+    };
+    expect(logThresholdRise('red-green', 10) / logThresholdRise('blue-yellow', 10)).toBeCloseTo(2, 6);
+    expect(logThresholdRise('blue-yellow', 10)).toBeCloseTo((0.106 * 10) / 2.3, 6);
   });
 
   test('the S-cone-free centre removes blue–yellow detail finer than 25′ at the gaze (Williams, MacLeod & Hayhoe 1981)', () => {
@@ -80,11 +88,11 @@ describe('colour loss with eccentricity (our proposal on Mullen 1991; Mullen, Sa
     expect(chromaticCutoffCpd('blue-yellow', 1, PARAMS, 60)).toBeGreaterThan(5);
   });
 
-  // A red–green checkerboard of 0.75° checks, 4.5° wide, 2.25° tall.
-  const checks = (eccDeg: number): { frame: LinearRgb; box: [number, number, number, number] } => {
+  // A red–green checkerboard of `checkDeg` checks, 6 × 3 checks.
+  const checks = (eccDeg: number, checkDeg = 0.75): { frame: LinearRgb; box: [number, number, number, number] } => {
     const frame = frameOf(GREY);
     const ppd = pxPerDegAt(eccDeg);
-    const size = Math.round(0.75 * ppd);
+    const size = Math.round(checkDeg * ppd);
     const w = 6 * size;
     const h = 3 * size;
     const x0 = columnAt(eccDeg) - Math.round(w / 2);
@@ -99,8 +107,8 @@ describe('colour loss with eccentricity (our proposal on Mullen 1991; Mullen, Sa
     expect(redGreenModulation(percept, ...box) / redGreenModulation(frame, ...box)).toBeGreaterThan(0.5);
   });
 
-  test('the same pattern at 30° loses nearly all its chroma (Mullen, Sakurai & Chu 2005: absent for small stimuli by 25–30°)', () => {
-    const { frame, box } = checks(30);
+  test('a small (0.25° checks) red–green pattern at 30° loses nearly all its chroma (Mullen, Sakurai & Chu 2005: absent for small stimuli by 25–30°)', () => {
+    const { frame, box } = checks(30, 0.25);
     const { percept } = runProof(frame, setup(), 'test');
     expect(redGreenModulation(percept, ...box) / redGreenModulation(frame, ...box)).toBeLessThan(0.1);
   });
@@ -151,7 +159,10 @@ describe('light level (CIE 191:2010; Larson et al. 1997)', () => {
     ['scotopic', { light: { adaptingLuminanceCdM2: 0.001 } }],
     ['one eye, with its blind spot', { viewer: { preset: 'age-25', eyes: 'right' } }],
   ])('a uniform frame stays uniform: %s', (_name, over) => {
-    const { percept } = runProof(frameOf([0.3, 0.25, 0.2]), setup(over), 'test');
+    // A surround as bright as the frame, so that no edge of the field shows (common practice).
+    const y = 0.2126 * 0.3 + 0.7152 * 0.25 + 0.0722 * 0.2;
+    const light = { surroundLuminanceCdM2: 200 * y, ...((over as { light?: object }).light ?? {}) };
+    const { percept } = runProof(frameOf([0.3, 0.25, 0.2]), setup({ ...over, light }), 'test');
     percept.planes.forEach((p, c) => {
       const expected = p[0];
       for (let i = 0; i < p.length; i += 13) expect(Math.abs(p[i] - expected)).toBeLessThan(2e-3);
