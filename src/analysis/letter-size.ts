@@ -1,54 +1,87 @@
 /**
  * Smallest legible letter height from the eye's limits. Our proposal, built on:
- * - a letter is 5 strokes high and a stroke is half a cycle, so a letter needs 2.5 cycles per letter
- *   height (common practice: the 5′ 20/20 letter ↔ 30 cpd);
- * - the finest frequency is the lower of the retina's cutoff and the frequency where the mean optical
- *   MTF (Watson 2013) falls to OPTICAL_THRESHOLD;
- * - residual defocus adds in quadrature a letter of 5 × MAR, MAR = 0.65 × pupil (mm) × blur (D) arcmin
- *   (Smith 1982, from memory).
+ * - a letter is 5 strokes high and a stroke is half a cycle, so sharp letters need 2.5 cycles per
+ *   letter height (common practice: the 5′ 20/20 letter ↔ 30 cpd);
+ * - two limits that add like blurs, in quadrature (the standard equivalent-blur model of acuity,
+ *   MAR = MAR0·sqrt(1 + (σ/σ_int)²)):
+ *   neural — 2.5 cycles per letter at a share (the acuity model's letter factor) of the retina's
+ *   cutoff; optical — N cycles per letter at the frequency where the computed white-light luminance
+ *   MTF of this eye (with its defocus, stray light and, off the fovea, the off-axis loss of Navarro
+ *   et al. 1993) falls to a threshold modulation T. Blurred letters are read from their coarse
+ *   structure, so N is well below 2.5.
+ * T, N and the letter factors are fitted (scripts/fit-letter-rule.ts) to a young eye's foveal acuity,
+ * logMAR −0.16 (Elliott, Yang & Whitaker 1995), and to unaided acuity under defocus b,
+ * MAR ∝ 1 + b² (Blendowske 2015). The periphery is then within 0.05 log units of Song, Levi &
+ * Pelli (2014) Eq. 13 from 2 to 30°, which was not fitted.
  */
-import { frequencyAtTransfer, MEAN_MTF_PUPIL_RANGE_MM, watsonMeanMtf } from '../optics/mean-mtf.js';
+import { offAxisRatio } from '../optics/off-axis.js';
 
-/** Cycles per letter height: 5 strokes of half a cycle each (common practice). */
+/** Cycles per letter height of a sharp letter: 5 strokes of half a cycle each (common practice). */
 export const CYCLES_PER_LETTER = 2.5;
-/** Optical modulation below which fine detail is taken as lost (our proposal). */
-export const OPTICAL_THRESHOLD = 0.1;
-/** Minimum angle of resolution per mm of pupil per diopter of defocus, arcmin (Smith 1982, from memory). */
-export const DEFOCUS_MAR_ARCMIN_PER_MM_D = 0.65;
-/** Letter height in units of the minimum angle of resolution (common practice). */
-export const LETTER_HEIGHT_IN_MAR = 5;
+/** Modulation of the eye's MTF that sets the optical limit (fitted, see the file's comment). */
+export const OPTICAL_THRESHOLD_MODULATION = 0.15;
+/** Cycles per letter height a blurred letter needs at that limit (fitted). */
+export const OPTICAL_CYCLES_PER_LETTER = 0.76;
 /** Fluent reading needs print about twice the threshold size (Whittaker & Lovie-Kitchin 1993). */
 export const READING_RESERVE = 2;
+/** Blur strength (D) from which an optical limit is named after defocus. */
+export const DEFOCUS_NAMED_FROM_D = 0.25;
 
-export function clampPupilForMeanMtf(pupilDiameterMm: number): number {
-  const [lo, hi] = MEAN_MTF_PUPIL_RANGE_MM;
-  return Math.min(hi, Math.max(lo, pupilDiameterMm));
-}
-
-/** Frequency (cpd) where the mean optical MTF of a corrected eye falls to OPTICAL_THRESHOLD. */
-export function opticalCutoffCpd(pupilDiameterMm: number): number {
-  const d = clampPupilForMeanMtf(pupilDiameterMm);
-  return frequencyAtTransfer((f) => watsonMeanMtf(f, d), OPTICAL_THRESHOLD);
-}
+const ECCENTRICITY_STEP_DEG = 0.5;
+const ECCENTRICITY_MAX_DEG = 90;
 
 export interface LetterLimits {
-  opticalCutoffCpd: number;
-  /** Letter height that defocus alone allows, arcmin. */
-  defocusLetterArcmin: number;
+  /** Optical limit (cpd, where the MTF falls to OPTICAL_THRESHOLD_MODULATION) every 0.5° from 0 to 90°. */
+  opticalCutoffCpdByEccentricity: Float32Array;
+  /** Share of the retinal cutoff at which a sharp letter's 2.5 cycles lie (the acuity model's letter factor). */
+  letterFactor: number;
+  /** The eye's residual blur strength is large enough to name defocus as the optical limit. */
+  defocusLimited: boolean;
 }
 
-export function letterLimits(pupilDiameterMm: number, blurStrengthD: number): LetterLimits {
-  return {
-    opticalCutoffCpd: opticalCutoffCpd(pupilDiameterMm),
-    defocusLetterArcmin: LETTER_HEIGHT_IN_MAR * DEFOCUS_MAR_ARCMIN_PER_MM_D * pupilDiameterMm * Math.abs(blurStrengthD),
-  };
+/**
+ * Lowest frequency (cpd) at which a transfer function falls to `threshold`, by bisection after a
+ * coarse scan; `upperCpd` when it never does below that.
+ */
+export function frequencyAtTransfer(transfer: (fCpd: number) => number, threshold: number, upperCpd = 200): number {
+  const step = 0.25;
+  let lo = 0;
+  for (let f = step; f <= upperCpd; f += step) {
+    if (transfer(f) <= threshold) {
+      let hi = f;
+      for (let i = 0; i < 40; i++) {
+        const mid = (lo + hi) / 2;
+        if (transfer(mid) <= threshold) hi = mid;
+        else lo = mid;
+      }
+      return (lo + hi) / 2;
+    }
+    lo = f;
+  }
+  return upperCpd;
 }
 
-/** Smallest legible letter height, arcmin, where the retina resolves `retinalCutoffCpd`. */
-export function smallestLetterArcmin(retinalCutoffCpd: number, limits: LetterLimits): number {
-  const finestCpd = Math.min(retinalCutoffCpd, limits.opticalCutoffCpd);
-  const sharpLetter = (CYCLES_PER_LETTER * 60) / finestCpd;
-  return Math.hypot(sharpLetter, limits.defocusLetterArcmin);
+/**
+ * The limits of one eye: `luminanceMtf` is its white-light luminance MTF on axis (cpd → modulation),
+ * `coreFraction` the share of light its stray light leaves in the image's core, `letterFactor` the
+ * acuity model's.
+ */
+export function letterLimits(luminanceMtf: (fCpd: number) => number, coreFraction: number, blurStrengthD: number, letterFactor: number): LetterLimits {
+  const steps = Math.round(ECCENTRICITY_MAX_DEG / ECCENTRICITY_STEP_DEG) + 1;
+  const cutoffs = new Float32Array(steps);
+  for (let s = 0; s < steps; s++) {
+    const e = s * ECCENTRICITY_STEP_DEG;
+    cutoffs[s] = frequencyAtTransfer((f) => coreFraction * luminanceMtf(f) * offAxisRatio(e, f), OPTICAL_THRESHOLD_MODULATION);
+  }
+  return { opticalCutoffCpdByEccentricity: cutoffs, letterFactor, defocusLimited: Math.abs(blurStrengthD) >= DEFOCUS_NAMED_FROM_D };
+}
+
+/** Optical cutoff (cpd) at an eccentricity, linear between the tabulated ones. */
+export function opticalCutoffAt(limits: LetterLimits, eccentricityDeg: number): number {
+  const t = limits.opticalCutoffCpdByEccentricity;
+  const u = Math.min(t.length - 1, Math.max(0, eccentricityDeg / ECCENTRICITY_STEP_DEG));
+  const i = Math.min(t.length - 2, Math.floor(u));
+  return t[i] + (t[i + 1] - t[i]) * (u - i);
 }
 
 /**
@@ -69,12 +102,18 @@ export interface LetterSize {
 }
 
 /** `rodDominated`: the retinal cutoff is mostly that of rods (dim light), named as such. */
-export function letterSizeAt(retinalCutoffCpd: number, limits: LetterLimits, arcminPerPx: number, rodDominated = false): LetterSize {
-  const eyeArcmin = smallestLetterArcmin(retinalCutoffCpd, limits);
+export function letterSizeAt(retinalCutoffCpd: number, limits: LetterLimits, eccentricityDeg: number, arcminPerPx: number, rodDominated = false): LetterSize {
+  const neuralArcmin = (CYCLES_PER_LETTER * 60) / (limits.letterFactor * retinalCutoffCpd);
+  const opticalArcmin = (OPTICAL_CYCLES_PER_LETTER * 60) / opticalCutoffAt(limits, eccentricityDeg);
+  const eyeArcmin = Math.hypot(neuralArcmin, opticalArcmin);
   const eyePx = eyeArcmin / arcminPerPx;
-  const sharpLetter = (CYCLES_PER_LETTER * 60) / Math.min(retinalCutoffCpd, limits.opticalCutoffCpd);
   const limitedBy: LetterLimit = eyePx < FRAME_MIN_LETTER_PX ? 'display pixels'
-    : limits.defocusLetterArcmin > sharpLetter ? 'defocus'
-      : limits.opticalCutoffCpd < retinalCutoffCpd ? 'optics' : rodDominated ? 'rod vision' : 'retina';
+    : opticalArcmin > neuralArcmin ? (limits.defocusLimited ? 'defocus' : 'optics')
+      : rodDominated ? 'rod vision' : 'retina';
   return { eyeArcmin, px: Math.max(eyePx, FRAME_MIN_LETTER_PX), limitedBy };
+}
+
+/** logMAR of a letter height: the 5′ letter is logMAR 0 (common practice). */
+export function letterLogMar(letterArcmin: number): number {
+  return Math.log10(letterArcmin / 5);
 }
