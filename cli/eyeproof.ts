@@ -23,6 +23,8 @@ interface SetupOptions {
   viewer?: string;
   gaze?: string;
   acuityModel?: string;
+  perceptMode?: string;
+  referenceViewer?: string;
 }
 
 type Json = Record<string, unknown>;
@@ -57,11 +59,28 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
     over.gaze = { xPx: Number(m[1]), yPx: Number(m[2]) };
   }
   if (opts.acuityModel) over.models = { acuity: opts.acuityModel };
+  if (opts.perceptMode || opts.referenceViewer) {
+    const percept: Json = {};
+    if (opts.perceptMode) percept.mode = opts.perceptMode;
+    if (opts.referenceViewer) {
+      if (viewerPresets.some((p) => p.name === opts.referenceViewer)) percept.referenceViewer = opts.referenceViewer;
+      else if (existsSync(opts.referenceViewer) || /\.json$/i.test(opts.referenceViewer)) {
+        const v = (await readSetupJson(opts.referenceViewer)) as Json;
+        percept.referenceViewer = v && typeof v === 'object' && 'viewer' in v ? v.viewer : v;
+        sources.push(opts.referenceViewer);
+      } else {
+        throw new ConfigError('--reference-viewer', [{ path: '--reference-viewer', received: opts.referenceViewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}` }]);
+      }
+    }
+    over.percept = percept;
+  }
   const merged = mergeSetupJson(raw, over);
   // A viewer given by flag replaces the file's viewer rather than merging into it.
   if (over.viewer) merged.viewer = over.viewer;
   const source = sources.length ? sources.join(' + ') : 'built-in defaults';
-  return { setup: validateSetup(merged, source), source };
+  const setup = validateSetup(merged, source);
+  if (opts.perceptMode) setup.percept.modeFrom = 'command line';
+  return { setup, source };
 }
 
 function progress(quiet: boolean): (stage: string) => void {
@@ -76,7 +95,9 @@ function addSetupOptions(cmd: Command): Command {
     .option('-s, --setup <preset|file>', 'display preset name or setup JSON file (default: desktop-27in)')
     .option('-v, --viewer <preset|file>', 'viewer preset name or viewer JSON file (default: age-25)')
     .option('-g, --gaze <x,y>', 'where the viewer looks, frame pixels (default: the centre)')
-    .addOption(new Option('--acuity-model <name>', 'acuity model').choices(['rgc-sampling', 'contrast-threshold']));
+    .addOption(new Option('--acuity-model <name>', 'acuity model').choices(['rgc-sampling', 'contrast-threshold']))
+    .addOption(new Option('--percept-mode <mode>', 'what percept.png shows: same-display (default for screens) or retinal-image (default for headsets)').choices(['same-display', 'retinal-image']))
+    .option('--reference-viewer <preset|file>', 'who looks at a same-display percept (default: age-25)');
 }
 
 export function buildProgram(): Command {

@@ -17,15 +17,16 @@ export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
     ['light regime', `${n.light.regime}, cone share m = ${f(n.light.mesopicFactorM, 3)} (CIE 191), S/P ${f(n.light.scotopicToPhotopicRatio)}`],
     ...(n.blindSpot ? [['blind spot', `${n.blindSpot.eye} eye: ${n.blindSpot.centreFieldDeg[0]}°, ${n.blindSpot.centreFieldDeg[1]}° from the gaze${n.blindSpot.centrePx ? ` (frame px ${n.blindSpot.centrePx.join(', ')})` : ', outside the frame'}`] as [string, string]] : []),
     ['pupil', `${f(e.pupilDiameterMm)} mm (${e.pupilSource}${e.pupilAgeClamped ? ', age clamped to 20–83' : ''})`],
-    ['accommodation amplitude', `${f(e.accommodationAmplitudeD)} D (Hofstetter mean)`],
+    ['accommodation amplitude', `${f(e.accommodationAmplitudeD)} D (Hofstetter mean), ${f(e.sustainedAccommodationD)} D usable in sustained viewing (${Math.round(100 * setup.models.accommodationReserve)} % in reserve)`],
     ['accommodation demand / supplied', `${f(e.accommodationDemandD)} D / ${f(e.accommodationD)} D`],
     ['residual defocus', `${f(e.defocusD)} D${e.astigmatismD ? `, cylinder ${f(e.astigmatismD)} D, blur strength ${f(e.blurStrengthD)} D` : ''}`],
     ['blur circle', `${f(e.blurCircleArcmin)}′`],
-    ['optics at 555 nm', `Strehl ${f(n.optics.strehlRatio, 3)}, MTF ${f(n.optics.mtfAt5Cpd)} / ${f(n.optics.mtfAt10Cpd)} / ${f(n.optics.mtfAt20Cpd)} / ${f(n.optics.mtfAt30Cpd)} at 5/10/20/30 cpd (${n.optics.aberrations})`],
+    ['optics, white light', `MTF ${f(n.optics.mtfAt5Cpd)} / ${f(n.optics.mtfAt10Cpd)} / ${f(n.optics.mtfAt20Cpd)} / ${f(n.optics.mtfAt30Cpd)} at 5/10/20/30 cpd; Strehl ${f(n.optics.strehlRatio, 3)} at 555 nm (${n.optics.aberrations})`],
     ['encircled energy 50 % / 80 %', `${f(n.optics.encircledEnergy50DiameterArcmin, 1)}′ / ${f(n.optics.encircledEnergy80DiameterArcmin, 1)}′ diameter`],
-    ['defocus by channel (R / G / B)', `${f(n.optics.defocusByChannelD.red)} / ${f(n.optics.defocusByChannelD.green)} / ${f(n.optics.defocusByChannelD.blue)} D (focus for ${n.optics.focusWavelengthNm} nm)`],
-    ['stray light 1°–30°', `${f(100 * n.optics.scatteredFraction1To30Deg, 1)} % of a point's light (CIE glare)`],
-    ['optical limit (mean MTF = 0.1)', `${f(e.opticalCutoffCpd, 1)} cpd`],
+    ['defocus by channel (R / G / B)', `${f(n.optics.defocusByChannelD.red)} / ${f(n.optics.defocusByChannelD.green)} / ${f(n.optics.defocusByChannelD.blue)} D (in focus: ${n.optics.focusWavelengthNm.toFixed(0)} nm, the best white-light image)`],
+    ['stray light beyond 1°', `${f(100 * n.optics.scatteredFraction1To100Deg, 1)} % of a point's light (CIE glare); surround ${f(n.light.surroundLuminanceCdM2, 2)} cd/m²`],
+    ['optical limit at the gaze', `${f(e.opticalCutoffCpdAtGaze, 1)} cpd (white-light MTF at the letter threshold); smallest letter ${f(e.smallestLetterArcminAtGaze, 2)}′ (logMAR ${f(Math.log10(e.smallestLetterArcminAtGaze / 5))})`],
+    ['percept.png shows', n.percept.mode === 'same-display' ? `what to show on this display for a ${n.percept.referenceViewer?.name ?? 'custom'} reference viewer (${n.percept.referenceViewer?.ageYears} y, pupil ${f(n.percept.referenceViewer?.pupilDiameterMm ?? 0)} mm)${n.percept.opticsCancel ? ' — same optics, none applied' : ''}` : 'the image on the simulated retina'],
   ];
   const width = Math.max(...rows.map(([k]) => k.length));
   const lines = rows.map(([k, v]) => `${k.padEnd(width)}  ${v}`);

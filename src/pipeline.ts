@@ -1,23 +1,30 @@
 /**
  * The schedule: the only place that knows the order of stages. Stage functions hold the maths; this
  * file decides what is computed, in which order, and which buffers are reused.
+ *
+ * A proof has two steps. `prepareProof` does everything that depends on the frame and the viewer —
+ * the eye's state and optics, the front-of-eye blurs, stray light, the retinal image and its ladders.
+ * `lookAt` does what depends on the gaze — the view geometry, the retina's cutoffs, the percept, the
+ * letter-size maps and the label verdicts — and is the cheap step a sweep or a live preview repeats.
  */
 import { luminancePlaneCdM2 } from './colour/luminance.js';
+import { scotopicOfLinearSrgb } from './colour/scotopic.js';
 import { checkGazeInFrame } from './config/validate.js';
-import type { Display, Setup } from './config/setup.js';
-import { LETTER_LIMITS, letterLimits, letterSizeAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
+import type { Display, Setup, Viewer } from './config/setup.js';
+import { LETTER_LIMITS, letterLimits, letterSizeAt, opticalCutoffAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
 import { judgeLabel, type Label, type LabelVerdict } from './analysis/labels.js';
 import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
+import { buildLadder, createLadderSums, createLadderWorkspace, evaluateLadder, mapPyramid } from './image/ladder-pyramid.js';
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
-import { applyOtf, otfGridFromKernel } from './optics/apply-otf.js';
-import { computeEyeOptics, type EyeOptics, type EyeOpticsFigures } from './optics/eye-optics.js';
-import { addStrayLight } from './optics/veil.js';
+import { applyOtf, otfGridFromKernel, relativeOtfGrid, type OtfGrid } from './optics/apply-otf.js';
+import { computeEyeOptics, luminanceMtfAt, type EyeOptics, type EyeOpticsFigures, type EyeOpticsInput } from './optics/eye-optics.js';
+import { addVeil, type VeilResult } from './optics/veil.js';
 import { headsetLensSigmaPx } from './optics/headset-lens.js';
 import { depthBlurSigmaPx } from './optics/depth-blur.js';
+import { offAxisVarianceDeg2 } from './optics/off-axis.js';
 import { kernelScales, scaleWeights } from './optics/scale-blend.js';
-import { blurVariable, maxPyramidLevels, planLevelBlend } from './retina/variable-blur.js';
-import { scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
+import { GLARE_MAX_DEG, scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
 import { fieldMeridians } from './retina/watson-rgc.js';
@@ -25,9 +32,9 @@ import { computeCutoffMap } from './retina/cutoff-map.js';
 import { chromaticCutoffCpd } from './retina/colour-loss.js';
 import { BLIND_SPOT, blindSpotCentreDeg, blindSpotDistance } from './retina/blind-spot.js';
 import { lightState, type LightState } from './retina/light-level.js';
-import { computePercept } from './retina/percept.js';
-import { rodCutoffCpd, SCOTOPIC_PER_PHOTOPIC_WHITE } from './retina/rod-vision.js';
-import { scotopicOfLinearSrgb } from './colour/scotopic.js';
+import { prepareRetina, renderPercept, type PreparedRetina } from './retina/percept.js';
+import { gaussianLadderCoefficients, gaussianVarianceForCutoff } from './retina/sharp-lowpass.js';
+import { ROD_PEAK_CUTOFF_CPD, rodCutoffCpd, SCOTOPIC_PER_PHOTOPIC_WHITE } from './retina/rod-vision.js';
 
 /** Eccentricities listed in the acuity table, deg. */
 export const ACUITY_TABLE_ECCENTRICITIES_DEG = [0, 2, 5, 10, 20, 30, 40] as const;
@@ -40,6 +47,8 @@ export interface AcuityRow {
   /** Field meridian: 'temporal' or 'nasal' for one eye; 'horizontal' for both (the better eye). */
   meridian: string;
   cutoffCpd: number;
+  /** Finest frequency the eye's optics deliver above the letter threshold there, cpd. */
+  opticalCutoffCpd: number;
   /** Smallest legible capital height the eye allows, arcmin. */
   smallestLetterArcmin: number;
   /** Smallest legible capital height on this frame, px (never below the frame's own 5 px limit). */
@@ -48,6 +57,15 @@ export interface AcuityRow {
   readingLetterPx: number;
   /** What sets the smallest letter here. */
   limitedBy: LetterLimit;
+}
+
+export interface PerceptNumbers {
+  mode: Setup['percept']['mode'];
+  modeFrom: Setup['percept']['modeFrom'];
+  /** The reference viewer of a same-display percept, and its pupil and defocus in the same light. */
+  referenceViewer?: { name?: string; ageYears: number; pupilDiameterMm: number; defocusD: number };
+  /** True when the simulated eye's optics equal the reference eye's, so none are applied. */
+  opticsCancel?: boolean;
 }
 
 export interface DerivedNumbers {
@@ -65,12 +83,14 @@ export interface DerivedNumbers {
   light: {
     adaptingLuminanceCdM2: number;
     adaptingLuminanceFrom: 'setup' | 'frame' | 'assumed 18 % grey frame';
+    surroundLuminanceCdM2: number;
   } & LightState;
   /** The blind spot of the viewing eye in the field around the gaze; absent with both eyes. */
   blindSpot?: { eye: 'right' | 'left'; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number; centrePx?: [number, number] };
-  eye: EyeState & { opticalCutoffCpd: number; defocusLetterArcmin: number };
-  /** Figures of the eye's optics: Strehl ratio, MTF, encircled energy, defocus per channel, stray light. */
-  optics: EyeOpticsFigures & { scatteredFraction1To30Deg: number };
+  eye: EyeState & { opticalCutoffCpdAtGaze: number; smallestLetterArcminAtGaze: number };
+  /** Figures of the eye's optics: Strehl ratio, white-light MTF, encircled energy, defocus per channel, stray light. */
+  optics: EyeOpticsFigures & { scatteredFraction1To100Deg: number };
+  percept: PerceptNumbers;
   acuity: AcuityRow[];
 }
 
@@ -83,10 +103,10 @@ interface Context {
   gazeDepthM?: number;
 }
 
-function contextFor(setup: Setup, frameSizePx: [number, number]): Context {
+function contextFor(setup: Setup, frameSizePx: [number, number], gazePx?: [number, number]): Context {
   const projection = projectionFor(setup.display, frameSizePx[0], frameSizePx[1]);
-  const gazePx: [number, number] = setup.gaze ? [setup.gaze.xPx, setup.gaze.yPx] : [Math.floor(frameSizePx[0] / 2), Math.floor(frameSizePx[1] / 2)];
-  return { setup, projection, gazePx, model: acuityModels[setup.models.acuity] };
+  const gaze: [number, number] = gazePx ?? (setup.gaze ? [setup.gaze.xPx, setup.gaze.yPx] : [Math.floor(frameSizePx[0] / 2), Math.floor(frameSizePx[1] / 2)]);
+  return { setup, projection, gazePx: gaze, model: acuityModels[setup.models.acuity] };
 }
 
 /** Distance from the eye to what it focuses on: the screen point at the gaze, or a headset's virtual image. */
@@ -120,9 +140,9 @@ function acuityTable(ctx: Context, limits: LetterLimits, coneShare: number): Acu
       const name = eyes === 'both' ? 'horizontal' : fieldMeridians(meridianDeg, eyes).horizontal;
       if (rows.some((r) => r.eccentricityDeg === e && (r.meridian === name || e === 0))) continue;
       const cutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(e, meridianDeg, eyes), e, coneShare);
-      const letter = letterSizeAt(cutoffCpd, limits, arcminAtPixel(ctx, at[0], at[1]), coneShare < 0.5);
+      const letter = letterSizeAt(cutoffCpd, limits, e, arcminAtPixel(ctx, at[0], at[1]), coneShare < 0.5);
       rows.push({
-        eccentricityDeg: e, meridian: name, cutoffCpd, smallestLetterArcmin: letter.eyeArcmin,
+        eccentricityDeg: e, meridian: name, cutoffCpd, opticalCutoffCpd: opticalCutoffAt(limits, e), smallestLetterArcmin: letter.eyeArcmin,
         smallestLetterPx: letter.px, readingLetterPx: READING_RESERVE * letter.px, limitedBy: letter.limitedBy,
       });
     }
@@ -145,22 +165,76 @@ function blindSpotFor(ctx: Context): DerivedNumbers['blindSpot'] {
   };
 }
 
-function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Adapting, scotopicRatio: number): { numbers: DerivedNumbers; optics: EyeOptics } {
+const opticsCache = new Map<string, EyeOptics>();
+const OPTICS_CACHE_SIZE = 16;
+
+/** The eye's optics for a state, cached: sweeps and batches meet the same eyes again and again. */
+function opticsFor(input: EyeOpticsInput): EyeOptics {
+  const key = JSON.stringify(input);
+  const hit = opticsCache.get(key);
+  if (hit) {
+    opticsCache.delete(key);
+    opticsCache.set(key, hit);
+    return hit;
+  }
+  const optics = computeEyeOptics(input);
+  opticsCache.set(key, optics);
+  if (opticsCache.size > OPTICS_CACHE_SIZE) opticsCache.delete(opticsCache.keys().next().value as string);
+  return optics;
+}
+
+function opticsInput(viewer: Viewer, eye: EyeState, pixelArcmin: number): EyeOpticsInput {
+  return {
+    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD, cylinderD: viewer.refraction.cylinderD, axisDeg: viewer.refraction.axisDeg,
+    pixelArcmin, ageYears: viewer.ageYears, ...(viewer.wavefront ? { measured: viewer.wavefront } : {}),
+  };
+}
+
+/** Share of a point's light the eye's stray light leaves in the image's core (CIE glare beyond 1°). */
+function coreFraction(viewer: Viewer): number {
+  return 1 - scatteredFraction(VEIL_FROM_DEG, GLARE_MAX_DEG, viewer.ageYears, viewer.eyePigmentation);
+}
+
+interface EyeModel {
+  eye: EyeState;
+  refEye: EyeState;
+  optics: EyeOptics;
+  limits: LetterLimits;
+  light: LightState;
+}
+
+function eyeModel(ctx: Context, adapting: Adapting, scotopicRatio: number, pixelArcmin: number): EyeModel {
   const { setup } = ctx;
-  const eye = computeEyeState({
-    viewer: setup.viewer, adaptingLuminanceCdM2: adapting.adaptingLuminanceCdM2,
-    adaptingFieldDeg: setup.light.adaptingFieldDeg, focalDistanceM: focalDistanceM(ctx),
+  const stateFor = (viewer: Viewer): EyeState => computeEyeState({
+    viewer, adaptingLuminanceCdM2: adapting.adaptingLuminanceCdM2, adaptingFieldDeg: setup.light.adaptingFieldDeg,
+    focalDistanceM: focalDistanceM(ctx), accommodationReserve: setup.models.accommodationReserve,
   });
-  const limits = letterLimits(eye.pupilDiameterMm, eye.blurStrengthD);
-  const light = lightState(adapting.adaptingLuminanceCdM2, scotopicRatio);
+  const eye = stateFor(setup.viewer);
+  const optics = opticsFor(opticsInput(setup.viewer, eye, pixelArcmin));
+  const limits = letterLimits((f) => luminanceMtfAt(optics, f), coreFraction(setup.viewer), eye.blurStrengthD, ctx.model.letterFactor);
+  return { eye, refEye: stateFor(setup.percept.referenceViewer), optics, limits, light: lightState(adapting.adaptingLuminanceCdM2, scotopicRatio) };
+}
+
+function surroundCdM2(setup: Setup): number {
+  return setup.light.surroundLuminanceCdM2 ?? setup.display.blackLuminanceCdM2;
+}
+
+/** True when two eyes in one light have the same optics (the same-display percept needs none). */
+function sameOptics(a: Viewer, b: Viewer, ea: EyeState, eb: EyeState): boolean {
+  return a.ageYears === b.ageYears && ea.pupilDiameterMm === eb.pupilDiameterMm && ea.defocusD === eb.defocusD
+    && a.refraction.cylinderD === b.refraction.cylinderD && a.refraction.axisDeg === b.refraction.axisDeg
+    && JSON.stringify(a.wavefront ?? null) === JSON.stringify(b.wavefront ?? null);
+}
+
+function numbersFrom(ctx: Context, frameSizePx: [number, number], adapting: Adapting, model: EyeModel): DerivedNumbers {
+  const { setup } = ctx;
   const arcminPerFramePx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
   const framePpd = 60 / arcminPerFramePx;
-  const optics = computeEyeOptics({
-    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD,
-    cylinderD: setup.viewer.refraction.cylinderD, axisDeg: setup.viewer.refraction.axisDeg, pixelArcmin: arcminPerFramePx,
-    ...(setup.viewer.wavefront ? { measured: setup.viewer.wavefront } : {}),
-  });
-  const numbers: DerivedNumbers = {
+  const { eye, refEye, optics, limits, light } = model;
+  const sameDisplay = setup.percept.mode === 'same-display';
+  const fovealCutoff = mixedCutoffCpd(ctx.model.cutoffCpd(0, 0, setup.viewer.eyes), 0, light.mesopicFactorM);
+  const atGaze = letterSizeAt(fovealCutoff, limits, 0, arcminPerFramePx, light.mesopicFactorM < 0.5);
+  return {
     display: {
       kind: setup.display.kind,
       resolutionPx: setup.display.resolutionPx,
@@ -172,14 +246,20 @@ function deriveNumbers(ctx: Context, frameSizePx: [number, number], adapting: Ad
       focalDistanceM: focalDistanceM(ctx),
     },
     gazePx: ctx.gazePx,
-    light: { ...adapting, ...light },
+    light: { ...adapting, surroundLuminanceCdM2: surroundCdM2(setup), ...light },
     ...(blindSpotFor(ctx) ? { blindSpot: blindSpotFor(ctx) } : {}),
-    eye: { ...eye, ...limits },
-    // Share of a point's light the CIE glare equation scatters to 1°–30°, as the veil applies it.
-    optics: { ...optics.figures, scatteredFraction1To30Deg: scatteredFraction(VEIL_FROM_DEG, 30, setup.viewer.ageYears, setup.viewer.eyePigmentation) },
+    eye: { ...eye, opticalCutoffCpdAtGaze: opticalCutoffAt(limits, 0), smallestLetterArcminAtGaze: atGaze.eyeArcmin },
+    optics: { ...optics.figures, scatteredFraction1To100Deg: 1 - coreFraction(setup.viewer) },
+    percept: {
+      mode: setup.percept.mode,
+      modeFrom: setup.percept.modeFrom,
+      ...(sameDisplay ? {
+        referenceViewer: { name: setup.percept.referenceViewerName, ageYears: setup.percept.referenceViewer.ageYears, pupilDiameterMm: refEye.pupilDiameterMm, defocusD: refEye.defocusD },
+        opticsCancel: sameOptics(setup.viewer, setup.percept.referenceViewer, eye, refEye),
+      } : {}),
+    },
     acuity: acuityTable(ctx, limits, light.mesopicFactorM),
   };
-  return { numbers, optics };
 }
 
 /** The derived figures of a setup without a frame (the frame is taken to be the display's resolution). */
@@ -191,14 +271,15 @@ export function computeNumbers(setup: Setup): DerivedNumbers {
   const adapting: Adapting = given === 'auto'
     ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
     : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+  const arcmin = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
   // Without a frame the light is taken to have the colour of the display's white (D65).
-  return deriveNumbers(ctx, [size[0], size[1]], adapting, SCOTOPIC_PER_PHOTOPIC_WHITE).numbers;
+  return numbersFrom(ctx, [size[0], size[1]], adapting, eyeModel(ctx, adapting, SCOTOPIC_PER_PHOTOPIC_WHITE, arcmin));
 }
 
 export interface ProofResult {
   numbers: DerivedNumbers;
   viewMap: ViewMap;
-  /** What reaches the photoreceptors: the frame through the eye's optics. */
+  /** What reaches the photoreceptors (retinal-image mode) or what the display must show (same-display mode), before the retina. */
   retinalImage: LinearRgb;
   /** What the viewer resolves. */
   percept: LinearRgb;
@@ -212,6 +293,8 @@ export interface ProofResult {
   labels?: LabelVerdict[];
   /** The eye's point-spread functions and optical figures. */
   optics: EyeOptics;
+  /** Stray light as applied. */
+  veil: VeilResult;
   /** With a depth map: where the eye focuses and the range of defocus over the frame. */
   depth?: { focusDistanceM: number; defocusRangeD: [number, number] };
   models: { acuity: AcuityModel };
@@ -233,9 +316,34 @@ export function frameFitsDisplay(display: Display, widthPx: number, heightPx: nu
   return Math.abs(widthPx / heightPx / (w / h) - 1) <= 0.01;
 }
 
-/** Runs the whole proof of one frame for one eye state. `source` names the setup in error messages. */
-export function runProof(frame: LinearRgb, setup: Setup, source: string, options: ProofOptions = {}): ProofResult {
-  const { onStage = () => {}, labels, depthM } = options;
+/** Everything that depends on the frame and the viewer, ready for looks at any gaze. */
+export interface PreparedProof {
+  frame: LinearRgb;
+  setup: Setup;
+  ctx: Context;
+  adapting: Adapting;
+  model: EyeModel;
+  retinalImage: LinearRgb;
+  retina: PreparedRetina;
+  veil: VeilResult;
+  depth?: ProofResult['depth'];
+  /** Smallest arcmin per frame pixel over the frame. */
+  minArcminPerPx: number;
+}
+
+/** Largest cutoff, in cycles per pixel, a coarser signal is asked to carry (below its 0.5 Nyquist limit). */
+const COARSE_SIGNAL_MAX_CYCLES_PER_PX = 0.45;
+
+/** How many times a signal whose finest detail is `maxCpd` can be halved on this frame. */
+function coarseLevel(maxCpd: number, minArcminPerPx: number): number {
+  let level = 0;
+  while (maxCpd * ((minArcminPerPx * 2 ** (level + 1)) / 60) <= COARSE_SIGNAL_MAX_CYCLES_PER_PX && level < 6) level++;
+  return level;
+}
+
+/** Runs everything that does not depend on the gaze (the eye's state is taken at the setup's gaze). */
+export function prepareProof(frame: LinearRgb, setup: Setup, source: string, options: ProofOptions = {}): PreparedProof {
+  const { onStage = () => {}, depthM } = options;
   const size: [number, number] = [frame.width, frame.height];
   checkGazeInFrame(setup, frame.width, frame.height, source);
   const ctx = contextFor(setup, size);
@@ -246,6 +354,8 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, options
 
   onStage('geometry');
   const viewMap = computeViewMap(ctx.projection, ctx.gazePx);
+  let minArcminPerPx = Infinity;
+  for (const v of viewMap.arcminPerPx) if (v < minArcminPerPx) minArcminPerPx = v;
 
   onStage('light and eye state');
   const given = setup.light.adaptingLuminanceCdM2;
@@ -253,17 +363,23 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, options
   const adapting: Adapting = given === 'auto'
     ? { adaptingLuminanceCdM2: field.photopicCdM2, adaptingLuminanceFrom: 'frame' }
     : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
-  const { numbers, optics } = deriveNumbers(ctx, size, adapting, field.scotopicToPhotopic);
-  const { eye } = numbers;
+  const arcminAtGaze = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
+  const scales = kernelScales(viewMap.arcminPerPx);
+  // The optics' figures are taken at the kernel scale nearest the gaze's pixels (one computation serves both).
+  const figureScale = scales.reduce((best, v) => (Math.abs(Math.log(v / arcminAtGaze)) < Math.abs(Math.log(best / arcminAtGaze)) ? v : best));
+  const model = eyeModel(ctx, adapting, field.scotopicToPhotopic, figureScale);
+  const { eye, refEye } = model;
+  const sameDisplay = setup.percept.mode === 'same-display';
 
-  // Blurs in front of the eye — the headset lens and depth of field — are Gaussians, so they
-  // combine by adding variances and run as one spatially varying pass.
-  let frontSigma2: Float32Array | undefined;
+  // Blurs in front of the eye — the headset lens and depth of field — are Gaussians, so they combine
+  // by adding variances and run as one spatially varying pass. On the same display the reference
+  // viewer looks through the same headset lens, so only the retinal image carries it.
+  let frontVariance: Float32Array | undefined;
   const addSigma = (sigmaPx: Float32Array): void => {
-    frontSigma2 ??= new Float32Array(sigmaPx.length);
-    for (let i = 0; i < sigmaPx.length; i++) frontSigma2[i] += sigmaPx[i] * sigmaPx[i];
+    frontVariance ??= new Float32Array(sigmaPx.length);
+    for (let i = 0; i < sigmaPx.length; i++) frontVariance[i] += sigmaPx[i] * sigmaPx[i];
   };
-  if (setup.display.kind === 'headset' && setup.display.lensSharpness) {
+  if (setup.display.kind === 'headset' && setup.display.lensSharpness && !sameDisplay) {
     onStage('optics: headset lens');
     addSigma(headsetLensSigmaPx(setup.display.lensSharpness, ctx.projection, viewMap));
   }
@@ -275,59 +391,104 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, options
     addSigma(sigmaPx);
     depth = { focusDistanceM, defocusRangeD };
   }
-  const shown = frontSigma2 ? blurPlanes(frame, frontSigma2.map(Math.sqrt)) : frame;
+  const shown = frontVariance ? blurPlanes(frame, frontVariance) : frame;
 
   onStage('optics');
   const retinalImage = createLinearRgb(frame.width, frame.height);
-  const scales = kernelScales(viewMap.arcminPerPx);
-  const opticsInput = {
-    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD,
-    cylinderD: setup.viewer.refraction.cylinderD, axisDeg: setup.viewer.refraction.axisDeg,
-    ...(setup.viewer.wavefront ? { measured: setup.viewer.wavefront } : {}),
-  };
+  const cancels = sameDisplay && sameOptics(setup.viewer, setup.percept.referenceViewer, eye, refEye);
   const planes = [0, 1, 2].map((c) => channelPlane(shown, c as 0 | 1 | 2));
-  if (scales.length === 1) {
-    filterWithKernels(planes, retinalImage.planes, optics.kernels);
+  if (cancels) {
+    for (let c = 0; c < 3; c++) retinalImage.planes[c].set(shown.planes[c]);
   } else {
-    // Kernels for a few pixel scales, blended per pixel (see scale-blend.ts).
-    const { lower, upperWeight } = scaleWeights(viewMap.arcminPerPx, scales);
-    const scratch = [0, 1, 2].map(() => new Float32Array(frame.width * frame.height));
-    scales.forEach((pixelArcmin, k) => {
-      filterWithKernels(planes, scratch, computeEyeOptics({ ...opticsInput, pixelArcmin }).kernels);
-      for (let c = 0; c < 3; c++) {
-        const out = retinalImage.planes[c];
-        const src = scratch[c];
-        for (let i = 0; i < out.length; i++) {
-          const w = lower[i] === k ? 1 - upperWeight[i] : lower[i] + 1 === k ? upperWeight[i] : 0;
-          if (w !== 0) out[i] += w * src[i];
+    const gridsAt = (pixelArcmin: number): OtfGrid[] => {
+      const sim = opticsFor(opticsInput(setup.viewer, eye, pixelArcmin)).kernels;
+      const ref = sameDisplay ? opticsFor(opticsInput(setup.percept.referenceViewer, refEye, pixelArcmin)).kernels : undefined;
+      return channelGrids(frame.width, frame.height, sim, ref);
+    };
+    if (scales.length === 1) {
+      applyOtf(planes, retinalImage.planes, gridsAt(scales[0]));
+    } else {
+      // Kernels for a few pixel scales, blended per pixel (see scale-blend.ts).
+      const { lower, upperWeight } = scaleWeights(viewMap.arcminPerPx, scales);
+      const scratch = [0, 1, 2].map(() => new Float32Array(frame.width * frame.height));
+      scales.forEach((pixelArcmin, k) => {
+        applyOtf(planes, scratch, gridsAt(pixelArcmin));
+        for (let c = 0; c < 3; c++) {
+          const out = retinalImage.planes[c];
+          const src = scratch[c];
+          for (let i = 0; i < out.length; i++) {
+            const w = lower[i] === k ? 1 - upperWeight[i] : lower[i] + 1 === k ? upperWeight[i] : 0;
+            if (w !== 0) out[i] += w * src[i];
+          }
         }
-      }
-    });
+      });
+    }
   }
   onStage('optics: stray light');
-  addStrayLight(retinalImage, { arcminPerPx: numbers.display.arcminPerFramePxAtGaze, ageYears: setup.viewer.ageYears, pigmentation: setup.viewer.eyePigmentation });
+  const veil = addVeil(retinalImage, {
+    arcminPerPx: arcminAtGaze,
+    eye: { ageYears: setup.viewer.ageYears, pigmentation: setup.viewer.eyePigmentation },
+    ...(sameDisplay ? { reference: { ageYears: setup.percept.referenceViewer.ageYears, pigmentation: setup.percept.referenceViewer.eyePigmentation } } : {}),
+    peakLuminanceCdM2: setup.display.peakLuminanceCdM2,
+    blackLuminanceCdM2: setup.display.blackLuminanceCdM2,
+    surroundLuminanceCdM2: surroundCdM2(setup),
+  });
+
+  onStage('retina: preparing');
+  const coneShare = model.light.mesopicFactorM;
+  const colourMaxCpd = Math.max(setup.models.colourLoss.redGreenFovealCutoffCpd, setup.models.colourLoss.blueYellowFovealCutoffCpd);
+  const retina = prepareRetina(retinalImage, {
+    // On the same display colour at the gaze is kept to the pixel, so it is worked at full size.
+    colourLevel: sameDisplay ? 0 : coarseLevel(colourMaxCpd, minArcminPerPx),
+    ...(coneShare < 1 ? { rodLevel: coarseLevel(ROD_PEAK_CUTOFF_CPD, minArcminPerPx) } : {}),
+  });
+  return { frame, setup, ctx, adapting, model, retinalImage, retina, veil, ...(depth ? { depth } : {}), minArcminPerPx };
+}
+
+/** The gaze-dependent step: the percept, maps and verdicts for a gaze (default: the prepared one). */
+export function lookAt(prepared: PreparedProof, options: { gazePx?: [number, number]; labels?: readonly Label[]; onStage?: StageListener } = {}): ProofResult {
+  const { setup, frame, model } = prepared;
+  const onStage = options.onStage ?? (() => {});
+  const ctx: Context = { ...prepared.ctx, gazePx: options.gazePx ?? prepared.ctx.gazePx };
+  const viewMap = options.gazePx ? computeViewMap(ctx.projection, ctx.gazePx) : computeViewMap(ctx.projection, ctx.gazePx);
+  const numbers = numbersFrom(ctx, [frame.width, frame.height], prepared.adapting, model);
 
   onStage('retina: cutoffs');
   const n = frame.width * frame.height;
   const { eyes } = setup.viewer;
-  const coneShare = numbers.light.mesopicFactorM;
-  const limits = { opticalCutoffCpd: eye.opticalCutoffCpd, defocusLetterArcmin: eye.defocusLetterArcmin };
-  const cutoffs = { achromaticCpd: new Float32Array(n), redGreenCpd: new Float32Array(n), blueYellowCpd: new Float32Array(n), rodCpd: new Float32Array(n) };
-  computeCutoffMap(viewMap, ctx.model, eyes, cutoffs.achromaticCpd);
+  const coneShare = model.light.mesopicFactorM;
+  const achromaticCpd = computeCutoffMap(viewMap, ctx.model, eyes, new Float32Array(n));
+  const cutoffs = {
+    achromaticLog2: new Float32Array(n), redGreenVariancePx2: new Float32Array(n), blueYellowVariancePx2: new Float32Array(n),
+    rodVariancePx2: coneShare < 1 ? new Float32Array(n) : undefined, offAxisVariancePx2: new Float32Array(n),
+  };
+  // On the same display the viewer of the picture sees each part with their own fovea, so colour is
+  // lost only as far as the simulated retina there falls short of a fovea (variances subtract); the
+  // S-cone-free centre, which the viewer of the picture has too, cancels.
+  const sameDisplay = setup.percept.mode === 'same-display';
+  const fovealRgCpd = chromaticCutoffCpd('red-green', 0, setup.models.colourLoss, Infinity);
+  const fovealByCpd = setup.models.colourLoss.blueYellowFovealCutoffCpd;
   const cutoffCpd = new Float32Array(n);
   const smallestLetterPx = new Float32Array(n);
   const letterLimitIndex = new Uint8Array(n);
   const blindCentre = blindSpotCentreDeg(eyes);
   const seen = blindCentre ? new Float32Array(n) : undefined;
   const colourLoss = setup.models.colourLoss;
+  const { limits } = model;
   for (let i = 0; i < n; i++) {
     const ecc = viewMap.eccentricityDeg[i];
-    const cone = cutoffs.achromaticCpd[i];
-    cutoffs.redGreenCpd[i] = chromaticCutoffCpd('red-green', ecc, colourLoss, cone);
-    cutoffs.blueYellowCpd[i] = chromaticCutoffCpd('blue-yellow', ecc, colourLoss, cone);
-    cutoffs.rodCpd[i] = rodCutoffCpd(ecc, cone);
+    const cone = achromaticCpd[i];
+    const cyclesPerCpd = viewMap.arcminPerPx[i] / 60;
+    cutoffs.achromaticLog2[i] = Math.log2(cone * cyclesPerCpd);
+    const variance = (cpd: number, fovealCpd: number): number => Math.max(0, gaussianVarianceForCutoff(cpd * cyclesPerCpd) - (sameDisplay ? gaussianVarianceForCutoff(fovealCpd * cyclesPerCpd) : 0));
+    cutoffs.redGreenVariancePx2[i] = variance(chromaticCutoffCpd('red-green', ecc, colourLoss, cone), fovealRgCpd);
+    cutoffs.blueYellowVariancePx2[i] = variance(chromaticCutoffCpd('blue-yellow', ecc, colourLoss, cone, !sameDisplay), fovealByCpd);
+    if (cutoffs.rodVariancePx2) cutoffs.rodVariancePx2[i] = gaussianVarianceForCutoff(rodCutoffCpd(ecc, cone) * cyclesPerCpd);
+    // The eye's off-axis optics, as a blur matched at half the local cutoff (never finer than the frame holds).
+    const matchCpd = Math.min(cone, 30 / viewMap.arcminPerPx[i]) / 2;
+    cutoffs.offAxisVariancePx2[i] = offAxisVarianceDeg2(ecc, matchCpd) / (cyclesPerCpd * cyclesPerCpd);
     cutoffCpd[i] = mixedCutoffCpd(cone, ecc, coneShare);
-    const letter = letterSizeAt(cutoffCpd[i], limits, viewMap.arcminPerPx[i], coneShare < 0.5);
+    const letter = letterSizeAt(cutoffCpd[i], limits, ecc, viewMap.arcminPerPx[i], coneShare < 0.5);
     smallestLetterPx[i] = letter.px;
     letterLimitIndex[i] = LETTER_LIMITS.indexOf(letter.limitedBy);
     if (seen && blindCentre) {
@@ -340,37 +501,50 @@ export function runProof(frame: LinearRgb, setup: Setup, source: string, options
       }
     }
   }
-  const percept = computePercept({ retinal: retinalImage, cutoffs, arcminPerPx: viewMap.arcminPerPx, coneShare, seen }, onStage);
+  onStage('retina: percept');
+  const percept = renderPercept(prepared.retina, { cutoffs, coneShare, seen });
 
   let verdicts: LabelVerdict[] | undefined;
+  const labels = options.labels;
   if (labels) {
     onStage('labels');
     const fovealCutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(0, 0, eyes), 0, coneShare);
     const maps = {
       ...viewMap, smallestLetterPx,
       limitAt: (i: number) => LETTER_LIMITS[letterLimitIndex[i]],
-      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, limits, arcminPerPx, coneShare < 0.5),
+      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, limits, 0, arcminPerPx, coneShare < 0.5),
     };
     verdicts = labels.map((label) => judgeLabel(label, maps));
   }
-  return { numbers, viewMap, retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts, optics, ...(depth ? { depth } : {}), models: { acuity: ctx.model } };
+  return {
+    numbers, viewMap, retinalImage: prepared.retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts,
+    optics: model.optics, veil: prepared.veil, ...(prepared.depth ? { depth: prepared.depth } : {}), models: { acuity: ctx.model },
+  };
 }
 
-/** Every channel through the spatially varying Gaussian blur of a sigma map (px). */
-function blurPlanes(image: LinearRgb, sigmaPx: Float32Array): LinearRgb {
-  const blend = planLevelBlend(sigmaPx, maxPyramidLevels(image.width, image.height));
-  const out = createLinearRgb(image.width, image.height);
-  image.planes.forEach((p, c) => blurVariable({ width: image.width, height: image.height, data: p }, blend, out.planes[c]));
+/** Runs the whole proof of one frame for one eye state. `source` names the setup in error messages. */
+export function runProof(frame: LinearRgb, setup: Setup, source: string, options: ProofOptions = {}): ProofResult {
+  return lookAt(prepareProof(frame, setup, source, options), { labels: options.labels, onStage: options.onStage });
+}
+
+/** Every channel through the spatially varying Gaussian blur of a variance map (px²). */
+function blurPlanes(image: LinearRgb, variancePx2: Float32Array): LinearRgb {
+  const { width, height } = image;
+  const ws = createLadderWorkspace(width, height);
+  const out = createLinearRgb(width, height);
+  image.planes.forEach((p, c) => {
+    const ladder = buildLadder(p, width, height, ws);
+    evaluateLadder(ladder, gaussianLadderCoefficients(mapPyramid(variancePx2, ladder), ladder.levels), out.planes[c], createLadderSums(ladder), ws);
+  });
   return out;
 }
 
-/** Filters three planes by three kernels (one per channel), sharing one tile size. */
-function filterWithKernels(planes: ReturnType<typeof channelPlane>[], outs: Float32Array[], kernels: { kernel: Float32Array; size: number }[]): void {
+/** Transfer grids per channel: the eye's kernels, or their ratio to the reference eye's. */
+function channelGrids(width: number, height: number, sim: EyeOptics['kernels'], ref?: EyeOptics['kernels']): OtfGrid[] {
   // All channels share one tile size: kernels are padded to the largest.
-  const largest = Math.max(...kernels.map((k) => k.size));
-  const { width, height } = planes[0];
-  const grids = kernels.map((k) => otfGridFromKernel(width, height, padKernel(k.kernel, k.size, largest), largest));
-  applyOtf(planes, outs, grids);
+  const largest = Math.max(...sim.map((k) => k.size), ...(ref ?? []).map((k) => k.size));
+  const grid = (k: { kernel: Float32Array; size: number }): OtfGrid => otfGridFromKernel(width, height, padKernel(k.kernel, k.size, largest), largest);
+  return sim.map((k, c) => (ref ? relativeOtfGrid(grid(k), grid(ref[c])) : grid(k)));
 }
 
 /** Centres an odd-sized kernel in a larger odd size, zero around it. */

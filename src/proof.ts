@@ -35,7 +35,10 @@ export function setupCaption(setup: Setup, result: ProofResult): string {
     : `headset ${d.fieldOfViewDeg.join('°×')}° ${d.resolutionPx.join('×')}, image at ${d.focalDistanceM.toFixed(2)} m`;
   const v = setup.viewer;
   const refraction = v.refraction.sphereD || v.refraction.cylinderD ? `, uncorrected ${v.refraction.sphereD.toFixed(2)} / ${v.refraction.cylinderD.toFixed(2)} × ${v.refraction.axisDeg}°` : '';
-  return `${setup.presetNames.display ?? 'custom display'}: ${where}, ${display.framePixelsPerDegreeAtGaze.toFixed(1)} px/° at gaze · viewer ${setup.presetNames.viewer ?? 'custom'}: ${v.ageYears} y${refraction}, ${v.eyes === 'both' ? 'both eyes' : `${v.eyes} eye`} · pupil ${eye.pupilDiameterMm.toFixed(1)} mm, defocus ${eye.defocusD.toFixed(2)} D, blur ${eye.blurCircleArcmin.toFixed(1)}′ · gaze (${gazePx[0]}, ${gazePx[1]}) px · ${setup.models.acuity}`;
+  const mode = setup.percept.mode === 'same-display'
+    ? `shown for the reference viewer (${setup.percept.referenceViewerName ?? 'custom'}) on this display`
+    : 'image on the retina';
+  return `${setup.presetNames.display ?? 'custom display'}: ${where}, ${display.framePixelsPerDegreeAtGaze.toFixed(1)} px/° at gaze · viewer ${setup.presetNames.viewer ?? 'custom'}: ${v.ageYears} y${refraction}, ${v.eyes === 'both' ? 'both eyes' : `${v.eyes} eye`} · pupil ${eye.pupilDiameterMm.toFixed(1)} mm, defocus ${eye.defocusD.toFixed(2)} D, blur ${eye.blurCircleArcmin.toFixed(1)}′ · gaze (${gazePx[0]}, ${gazePx[1]}) px · ${mode}`;
 }
 
 export interface LabelsInput {
@@ -73,11 +76,14 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
   });
   const compare = renderCompare({
     width, height, frameRgba, perceptRgba, projection: projectionFor(setup.display, width, height),
-    gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot, caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
+    gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot,
+    perceptTitle: setup.percept.mode === 'same-display'
+      ? `What this viewer resolves, for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer on this screen (gaze fixed at the ring)`
+      : 'What this viewer resolves, on the retina (gaze fixed at the ring)', caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
   });
   const f = result.optics.figures;
   const psf = renderPsfPicture(result.optics.channelPsfs, result.optics.grid, f,
-    `pupil ${result.numbers.eye.pupilDiameterMm.toFixed(1)} mm · Strehl ${f.strehlRatio.toFixed(3)} · MTF at 10/30 cpd ${f.mtfAt10Cpd.toFixed(2)}/${f.mtfAt30Cpd.toFixed(2)} · 50/80 % energy within ${f.encircledEnergy50DiameterArcmin.toFixed(1)}′/${f.encircledEnergy80DiameterArcmin.toFixed(1)}′ · focused for ${f.focusWavelengthNm} nm`);
+    `pupil ${result.numbers.eye.pupilDiameterMm.toFixed(1)} mm · white-light MTF at 10/30 cpd ${f.mtfAt10Cpd.toFixed(2)}/${f.mtfAt30Cpd.toFixed(2)} · Strehl at 555 nm ${f.strehlRatio.toFixed(3)} · 50/80 % of the light within ${f.encircledEnergy50DiameterArcmin.toFixed(1)}′/${f.encircledEnergy80DiameterArcmin.toFixed(1)}′ · in focus: ${f.focusWavelengthNm.toFixed(0)} nm`);
   const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file, depthInput ? { file: depthInput.file, unit: depthInput.unit } : undefined);
   const files: OutputFile[] = [
     { name: 'percept.png', bytes: percept },

@@ -164,4 +164,18 @@ describe('eyeproof command', () => {
     const r = await run(['proof', frame, '--colour', 'red']);
     expect(r.code).toBe(2);
   });
+
+  test('--percept-mode and --reference-viewer choose what percept.png shows, and the report says so', async () => {
+    const retinal = await run(['proof', frame, '--percept-mode', 'retinal-image', '--json', '--out', join(dir, 'retinal')]);
+    expect(retinal.code).toBe(0);
+    expect(JSON.parse(retinal.stdout).percept).toEqual({ mode: 'retinal-image', modeFrom: 'command line' });
+    const shown = await run(['proof', frame, '--viewer', 'age-70', '--reference-viewer', 'age-45', '--json', '--out', join(dir, 'shown')]);
+    expect(shown.code).toBe(0);
+    const report = JSON.parse(shown.stdout);
+    expect(report.percept).toMatchObject({ mode: 'same-display', referenceViewer: { name: 'age-45', ageYears: 45 }, opticsCancel: false });
+    expect(report.models.find((m: { stage: string }) => m.stage === 'percept').name).toBe('same-display');
+    const bad = await run(['proof', frame, '--percept-mode', 'fisheye', '--out', join(dir, 'bad-mode')]);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/same-display/);
+  });
 });

@@ -126,6 +126,22 @@ export const lightDecl: ObjectDecl = {
       type: 'number', unit: '°', minimum: 1, maximum: 180, default: 60,
       doc: 'Diameter of the adapting field (used by the pupil model).', source: 'Watson & Yellott 2012 use the field area in deg²',
     },
+    surroundLuminanceCdM2: {
+      type: 'number', unit: 'cd/m²', minimum: 0, maximum: 100000,
+      doc: 'Luminance of what surrounds the frame in the field of view (a dark bridge, a lit room, daylight); its stray light falls on the frame. Default: the display\'s black level (a dark room).',
+    },
+  },
+};
+
+export const perceptDecl: ObjectDecl = {
+  type: 'object',
+  doc: 'What percept.png shows.',
+  fields: {
+    mode: {
+      type: 'enum', values: ['same-display', 'retinal-image'],
+      doc: 'same-display: what to show on this display so that the reference viewer, looking at it from the same place, sees what the simulated viewer sees (the default for screens); retinal-image: the image on the simulated retina (the default for headsets, whose eye buffers are reviewed magnified).',
+      source: 'the relative-transfer method of Peli (1996), JOSA A 13(6):1131',
+    },
   },
 };
 
@@ -153,13 +169,18 @@ export const modelsDecl: ObjectDecl = {
   type: 'object',
   doc: 'Which published model is used where there is a choice.',
   fields: {
+    accommodationReserve: {
+      type: 'number', unit: '', minimum: 0, maximum: 0.9, default: 1 / 3,
+      doc: 'Share of the amplitude of accommodation kept in reserve in sustained viewing; the eye supplies at most the rest.',
+      source: 'common practice (keep a third to a half in reserve for comfortable near work)',
+    },
     acuity: {
       type: 'enum', values: ['rgc-sampling', 'contrast-threshold'], default: 'rgc-sampling',
       doc: 'rgc-sampling: Nyquist limit of one midget ganglion-cell lattice (Watson 2014); contrast-threshold: cutoff of the Geisler & Perry (1998) threshold model.',
     },
     colourLoss: {
       type: 'object',
-      doc: 'Our proposal for the loss of colour resolution with eccentricity: cutoff f0·2.3/(scale·e + 2.3) per opponent channel.',
+      doc: 'Our proposal for the loss of colour resolution with eccentricity: a contrast threshold rising with frequency as Geisler & Perry\'s for luminance, the eccentricity term scaled per opponent channel.',
       fields: {
         redGreenFovealCutoffCpd: {
           type: 'number', unit: 'cpd', minimum: 1, maximum: 60, default: 11,
@@ -171,11 +192,11 @@ export const modelsDecl: ObjectDecl = {
         },
         redGreenEccentricityScale: {
           type: 'number', unit: '', minimum: 0.5, maximum: 5, default: 2,
-          doc: 'How much faster than luminance red–green resolution falls with eccentricity.', source: 'about twice as steeply as luminance, Mullen (1991)',
+          doc: 'How much faster than luminance red–green sensitivity falls with eccentricity.', source: 'about twice as steeply as luminance, Mullen (1991)',
         },
         blueYellowEccentricityScale: {
           type: 'number', unit: '', minimum: 0.5, maximum: 5, default: 1,
-          doc: 'How much faster than luminance blue–yellow resolution falls with eccentricity.', source: 'about like luminance, Mullen & Kingdom (2002)',
+          doc: 'How much faster than luminance blue–yellow sensitivity falls with eccentricity.', source: 'about like luminance, Mullen & Kingdom (2002)',
         },
       },
     },
@@ -188,5 +209,6 @@ export const sectionDecls = {
   light: lightDecl,
   gaze: gazeDecl,
   frame: frameDecl,
+  percept: perceptDecl,
   models: modelsDecl,
 } as const;

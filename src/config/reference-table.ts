@@ -22,6 +22,9 @@ export function setupReferenceMarkdown(): string {
   rows('display', screenDecl.fields, out);
   rows('display', Object.fromEntries(Object.entries(headsetDecl.fields).filter(([k]) => !(k in screenDecl.fields))), out);
   out.push('| `viewer.preset` | a viewer preset name | `"age-25"` when viewer is omitted | Start from a preset; other viewer keys override it. |');
-  for (const [section, decl] of Object.entries(sectionDecls)) rows(section, decl.fields, out);
+  for (const [section, decl] of Object.entries(sectionDecls)) {
+    rows(section, decl.fields, out);
+    if (section === 'percept') out.push('| `percept.referenceViewer` | a viewer preset name or a viewer object (as `viewer`) | `"age-25"` | The viewer who looks at a same-display percept on the display; the percept carries the simulated viewer\'s loss relative to this viewer\'s own. |');
+  }
   return out.join('\n');
 }

@@ -46,7 +46,7 @@ export function setupJsonSchema(): Schema {
   };
   const screen = objectSchema(screenDecl, displayProps);
   const headset = objectSchema(headsetDecl, displayProps);
-  const viewer = objectSchema(sectionDecls.viewer, {
+  const viewer: Schema = objectSchema(sectionDecls.viewer, {
     preset: { enum: viewerPresets.map((p) => p.name), description: 'Start from a built-in viewer; fields given here override it.' },
   });
   return {
@@ -71,6 +71,12 @@ export function setupJsonSchema(): Schema {
       light: declToSchema(sectionDecls.light),
       gaze: { ...declToSchema(sectionDecls.gaze), required: ['xPx', 'yPx'] },
       frame: declToSchema(sectionDecls.frame),
+      percept: objectSchema(sectionDecls.percept, {
+        referenceViewer: {
+          description: 'The viewer who looks at a same-display percept: a viewer preset name or a viewer object (default "age-25").',
+          anyOf: [{ enum: viewerPresets.map((p) => p.name) }, viewer],
+        },
+      }),
       models: declToSchema(sectionDecls.models),
     },
   };

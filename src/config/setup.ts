@@ -50,6 +50,19 @@ export interface Viewer {
 export interface Light {
   adaptingLuminanceCdM2: number | 'auto';
   adaptingFieldDeg: number;
+  /** Luminance around the frame, cd/m²; undefined: the display's black level (a dark room). */
+  surroundLuminanceCdM2?: number;
+}
+
+export type PerceptMode = 'same-display' | 'retinal-image';
+
+export interface PerceptSettings {
+  mode: PerceptMode;
+  /** Whether the mode was given or follows from the display kind. */
+  modeFrom: 'setup' | 'display kind' | 'command line';
+  /** The viewer who looks at a same-display percept. */
+  referenceViewer: Viewer;
+  referenceViewerName?: string;
 }
 
 export interface GazePx {
@@ -66,7 +79,10 @@ export interface Setup {
   /** Undefined means the centre of the frame. */
   gaze?: GazePx;
   frame: { backgroundRgb: [number, number, number] };
+  percept: PerceptSettings;
   models: {
+    /** Share of the accommodation amplitude kept in reserve in sustained viewing. */
+    accommodationReserve: number;
     acuity: AcuityModelName;
     colourLoss: { redGreenFovealCutoffCpd: number; blueYellowFovealCutoffCpd: number; redGreenEccentricityScale: number; blueYellowEccentricityScale: number };
   };

@@ -220,12 +220,22 @@ export function validateSetup(input: unknown, source: string): Setup {
   const beforeDisplay = problems.length;
   const displayIn = applyPreset(isObject(input.display) ? input.display : undefined, displayPresets, defaultDisplayPreset, 'display', problems);
   const display = problems.length === beforeDisplay && (input.display === undefined || isObject(input.display)) ? checkDisplay(displayIn.merged, problems) : undefined;
-  const viewerIn = applyPreset(isObject(input.viewer) ? input.viewer : undefined, viewerPresets, defaultViewerPreset, 'viewer', problems);
-  const { preset: _p, ...viewerFields } = viewerIn.merged;
-  const viewer = checkValue(viewerFields, sectionDecls.viewer, 'viewer', problems) as Json | undefined;
+  const viewerIn = resolveViewer(isObject(input.viewer) ? input.viewer : undefined, 'viewer', problems);
   const light = checkValue(input.light, sectionDecls.light, 'light', problems) as Json | undefined;
   const frame = checkValue(input.frame, sectionDecls.frame, 'frame', problems) as Json | undefined;
   const models = checkValue(input.models, sectionDecls.models, 'models', problems) as Json | undefined;
+  const perceptIn = isObject(input.percept) ? input.percept : undefined;
+  if (input.percept !== undefined && !perceptIn) problems.push({ path: 'percept', received: input.percept, expected: 'an object' });
+  const percept = checkObject(perceptIn ?? {}, sectionDecls.percept, 'percept', problems, ['referenceViewer']);
+  const referenceRaw = perceptIn?.referenceViewer;
+  let referenceIn: { viewer?: Setup['viewer']; name?: string } = {};
+  if (typeof referenceRaw === 'string' || referenceRaw === undefined) {
+    referenceIn = resolveViewer({ preset: referenceRaw ?? DEFAULT_REFERENCE_VIEWER }, 'percept.referenceViewer', problems);
+  } else if (isObject(referenceRaw)) {
+    referenceIn = resolveViewer(referenceRaw, 'percept.referenceViewer', problems);
+  } else {
+    problems.push({ path: 'percept.referenceViewer', received: referenceRaw, expected: `a viewer preset name (${viewerPresets.map((p) => `"${p.name}"`).join(', ')}) or a viewer object` });
+  }
   let gaze: Setup['gaze'];
   if (input.gaze !== undefined) {
     const g = checkValue(input.gaze, sectionDecls.gaze, 'gaze', problems) as Json | undefined;
@@ -233,10 +243,46 @@ export function validateSetup(input: unknown, source: string): Setup {
       problems.push({ path: 'gaze', received: input.gaze, expected: 'both xPx and yPx' });
     } else if (g) gaze = { xPx: g.xPx as number, yPx: g.yPx as number };
   }
-  const wavefront = wavefrontOf(viewer?.wavefront as Json | undefined, problems);
-  if (problems.length > 0 || !display || !viewer || !light || !frame || !models) throw new ConfigError(source, problems);
+  if (problems.length > 0 || !display || !viewerIn.viewer || !referenceIn.viewer || !light || !frame || !models) throw new ConfigError(source, problems);
+  const mode = percept.mode as Setup['percept']['mode'] | undefined;
   return {
     display,
+    viewer: viewerIn.viewer,
+    light: {
+      adaptingLuminanceCdM2: (light.adaptingLuminanceCdM2 as number | 'auto' | undefined) ?? 'auto',
+      adaptingFieldDeg: light.adaptingFieldDeg as number,
+      ...(light.surroundLuminanceCdM2 !== undefined ? { surroundLuminanceCdM2: light.surroundLuminanceCdM2 as number } : {}),
+    },
+    gaze,
+    frame: { backgroundRgb: frame.backgroundRgb as [number, number, number] },
+    percept: {
+      mode: mode ?? (display.kind === 'headset' ? 'retinal-image' : 'same-display'),
+      modeFrom: mode ? 'setup' : 'display kind',
+      referenceViewer: referenceIn.viewer,
+      ...(referenceIn.name ? { referenceViewerName: referenceIn.name } : {}),
+    },
+    models: {
+      accommodationReserve: models.accommodationReserve as number,
+      acuity: models.acuity as Setup['models']['acuity'],
+      colourLoss: models.colourLoss as Setup['models']['colourLoss'],
+    },
+    presetNames: { display: displayIn.name, viewer: viewerIn.name },
+  };
+}
+
+/** The viewer who looks at a same-display percept, when the setup names none (common practice: a young adult with normal sight). */
+export const DEFAULT_REFERENCE_VIEWER = 'age-25';
+
+/** A viewer section (preset plus overrides), checked; problems are collected under `path`. */
+function resolveViewer(section: Json | undefined, path: string, problems: ConfigProblem[]): { viewer?: Setup['viewer']; name?: string } {
+  const before = problems.length;
+  const viewerIn = applyPreset(section, viewerPresets, defaultViewerPreset, path, problems);
+  const { preset: _p, ...viewerFields } = viewerIn.merged;
+  const viewer = checkValue(viewerFields, sectionDecls.viewer, path, problems) as Json | undefined;
+  const wavefront = wavefrontOf(viewer?.wavefront as Json | undefined, path, problems);
+  if (!viewer || problems.length > before) return {};
+  return {
+    name: viewerIn.name,
     viewer: {
       ageYears: viewer.ageYears as number,
       refraction: viewer.refraction as Setup['viewer']['refraction'],
@@ -245,21 +291,13 @@ export function validateSetup(input: unknown, source: string): Setup {
       eyePigmentation: viewer.eyePigmentation as number,
       ...wavefront,
     },
-    light: {
-      adaptingLuminanceCdM2: (light.adaptingLuminanceCdM2 as number | 'auto' | undefined) ?? 'auto',
-      adaptingFieldDeg: light.adaptingFieldDeg as number,
-    },
-    gaze,
-    frame: { backgroundRgb: frame.backgroundRgb as [number, number, number] },
-    models: { acuity: models.acuity as Setup['models']['acuity'], colourLoss: models.colourLoss as Setup['models']['colourLoss'] },
-    presetNames: { display: displayIn.name, viewer: viewerIn.name },
   };
 }
 
-function wavefrontOf(w: Json | undefined, problems: ConfigProblem[]): { wavefront?: Setup['viewer']['wavefront'] } {
+function wavefrontOf(w: Json | undefined, path: string, problems: ConfigProblem[]): { wavefront?: Setup['viewer']['wavefront'] } {
   if (!w || (w.pupilDiameterMm === undefined && w.coefficientsUm === undefined)) return {};
   if (w.pupilDiameterMm === undefined || w.coefficientsUm === undefined) {
-    problems.push({ path: 'viewer.wavefront', received: w, expected: 'both pupilDiameterMm and coefficientsUm' });
+    problems.push({ path: `${path}.wavefront`, received: w, expected: 'both pupilDiameterMm and coefficientsUm' });
     return {};
   }
   return { wavefront: { pupilDiameterMm: w.pupilDiameterMm as number, coefficientsUm: w.coefficientsUm as number[] } };

@@ -1,31 +1,39 @@
 /** Encoding images to PNG bytes: linear light is encoded to sRGB once, here. */
 import sharp from 'sharp';
-import { linearToSrgb } from '../colour/srgb.js';
+import { srgbToLinear } from '../colour/srgb.js';
 import type { LinearRgb } from '../image/plane.js';
 
-/** 4096-entry table from linear light to 8-bit sRGB; finer steps near black where sRGB is steep. */
-const ENCODE_STEPS = 4096;
-let encodeLut: Uint8Array | undefined;
+/**
+ * Linear values at which the 8-bit sRGB code steps up: code k + 1 begins where the encoded value
+ * reaches (k + 0.5)/255. Encoding searches these, so every code decodes and re-encodes to itself.
+ */
+let thresholds: Float32Array | undefined;
 
-function lut(): Uint8Array {
-  if (encodeLut) return encodeLut;
-  encodeLut = new Uint8Array(ENCODE_STEPS + 1);
-  for (let i = 0; i <= ENCODE_STEPS; i++) encodeLut[i] = Math.round(linearToSrgb(Math.pow(i / ENCODE_STEPS, 2)) * 255);
-  return encodeLut;
+function codeThresholds(): Float32Array {
+  if (thresholds) return thresholds;
+  thresholds = new Float32Array(255);
+  for (let k = 0; k < 255; k++) thresholds[k] = srgbToLinear((k + 0.5) / 255);
+  return thresholds;
 }
 
-/** Linear RGB to interleaved 8-bit sRGB RGBA (opaque), clamped to the display's range. */
+/** Linear RGB to interleaved 8-bit sRGB RGBA (opaque), clamped to the display's range, rounded exactly. */
 export function linearToRgba8(image: LinearRgb): Uint8ClampedArray {
-  const table = lut();
+  const t = codeThresholds();
   const n = image.width * image.height;
   const out = new Uint8ClampedArray(n * 4);
   for (let c = 0; c < 3; c++) {
     const plane = image.planes[c];
     for (let i = 0; i < n; i++) {
       const v = plane[i];
-      // The table is indexed by sqrt(linear) so dark values get as many steps as bright ones.
-      const idx = v <= 0 ? 0 : v >= 1 ? ENCODE_STEPS : Math.round(Math.sqrt(v) * ENCODE_STEPS);
-      out[i * 4 + c] = table[idx];
+      // Binary search for the number of thresholds at or below v: the code.
+      let lo = 0;
+      let hi = 255;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if (t[mid] <= v) lo = mid + 1;
+        else hi = mid;
+      }
+      out[i * 4 + c] = lo;
     }
   }
   for (let i = 0; i < n; i++) out[i * 4 + 3] = 255;

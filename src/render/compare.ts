@@ -20,6 +20,8 @@ export interface CompareInput {
   gazePx: [number, number];
   caption: string;
   caution: string;
+  /** Title over the percept, saying what it shows. */
+  perceptTitle: string;
   /** The viewing eye's blind spot, outlined on the percept. */
   blindSpot?: { eye: string; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number };
 }
@@ -47,7 +49,7 @@ export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; w
   g.fillStyle = '#f0f0f0';
   g.font = font(text * 1.05, true);
   g.fillText('Frame as displayed', text * 0.6, text * 1.5);
-  g.fillText('What this viewer resolves (gaze fixed at the ring)', width + gap + text * 0.6, text * 1.5);
+  g.fillText(input.perceptTitle, width + gap + text * 0.6, text * 1.5);
   g.font = font(text * 0.9);
   g.fillStyle = '#cfd4dc';
   g.fillText(input.caption, text * 0.6, text * 2.8);
