@@ -12,7 +12,7 @@ export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
     ['field of view', `${f(d.fieldOfViewDeg.horizontal, 1)}° × ${f(d.fieldOfViewDeg.vertical, 1)}°`],
     ['pixels per degree at gaze', `${f(d.pixelsPerDegreeAtGaze, 1)} px/° (${f(d.arcminPerFramePxAtGaze, 3)}′ per px)`],
     ['focal distance', `${f(d.focalDistanceM, 3)} m (${f(1 / d.focalDistanceM)} D)`],
-    ['viewer', `${setup.presetNames.viewer ?? 'custom'}: ${setup.viewer.ageYears} y, sphere ${f(setup.viewer.refraction.sphereD)} D, cylinder ${f(setup.viewer.refraction.cylinderD)} D, ${setup.viewer.eyes} eye${setup.viewer.eyes === 'both' ? 's' : ''}`],
+    ['viewer', `${setup.presetNames.viewer ?? 'custom'}: ${setup.viewer.ageYears} y, sphere ${f(setup.viewer.refraction.sphereD)} D, cylinder ${f(setup.viewer.refraction.cylinderD)} D, ${setup.viewer.eyes} eye${setup.viewer.eyes === 'both' ? 's' : ''}${setup.viewer.glasses === 'display' ? ', glasses for the display' : ''}`],
     ['adapting luminance', `${f(n.light.adaptingLuminanceCdM2, n.light.adaptingLuminanceCdM2 < 1 ? 4 : 1)} cd/m² (${n.light.adaptingLuminanceFrom})`],
     ['light regime', `${n.light.regime}, cone share m = ${f(n.light.mesopicFactorM, 3)} (CIE 191), S/P ${f(n.light.scotopicToPhotopicRatio)}`],
     ...(n.blindSpot ? [['blind spot', `${n.blindSpot.eye} eye: ${n.blindSpot.centreFieldDeg[0]}°, ${n.blindSpot.centreFieldDeg[1]}° from the gaze${n.blindSpot.centrePx ? ` (frame px ${n.blindSpot.centrePx.join(', ')})` : ', outside the frame'}`] as [string, string]] : []),
@@ -26,10 +26,12 @@ export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
     ['defocus by channel (R / G / B)', `${f(n.optics.defocusByChannelD.red)} / ${f(n.optics.defocusByChannelD.green)} / ${f(n.optics.defocusByChannelD.blue)} D (in focus: ${n.optics.focusWavelengthNm.toFixed(0)} nm, the best white-light image)`],
     ['stray light beyond 1°', `${f(100 * n.optics.scatteredFraction1To100Deg, 1)} % of a point's light (CIE glare); surround ${f(n.light.surroundLuminanceCdM2, 2)} cd/m²`],
     ['optical limit at the gaze', `${f(e.opticalCutoffCpdAtGaze, 1)} cpd (white-light MTF at the letter threshold); smallest letter ${f(e.smallestLetterArcminAtGaze, 2)}′ (logMAR ${f(Math.log10(e.smallestLetterArcminAtGaze / 5))})`],
-    ['percept.png shows', n.percept.mode === 'same-display' ? `what to show on this display for a ${n.percept.referenceViewer?.name ?? 'custom'} reference viewer (${n.percept.referenceViewer?.ageYears} y, pupil ${f(n.percept.referenceViewer?.pupilDiameterMm ?? 0)} mm)${n.percept.opticsCancel ? ' — same optics, none applied' : ''}` : 'the image on the simulated retina'],
+    ['percept.png shows', n.percept.mode === 'same-display' ? `what to show on this display for the ${n.percept.referenceViewer?.name ?? 'custom'} reference viewer (${n.percept.referenceViewer?.ageYears} y, pupil ${f(n.percept.referenceViewer?.pupilDiameterMm ?? 0)} mm)${n.percept.opticsCancel ? ' — same optics, none applied' : ''}` : 'the image on the simulated retina'],
   ];
   const width = Math.max(...rows.map(([k]) => k.length));
   const lines = rows.map(([k, v]) => `${k.padEnd(width)}  ${v}`);
+  lines.push('', `with age (${setup.viewer.ageYears} y):`);
+  for (const a of n.ageing) lines.push(`  ${a.quantity}: ${f(a.value, a.unit === 'logMAR' || a.unit === 'µm' ? 3 : 2)}${a.unit && a.unit !== 'logMAR' ? ` ${a.unit}` : a.unit === 'logMAR' ? ' logMAR' : ''} — ${a.source}`);
   lines.push('', `acuity (${setup.models.acuity}) on the horizontal meridian:`);
   lines.push('  ecc °  meridian     cutoff cpd  letter ′  letter px  reading px  limited by');
   for (const r of n.acuity) {

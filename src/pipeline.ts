@@ -8,6 +8,7 @@
  * letter-size maps and the label verdicts — and is the cheap step a sweep or a live preview repeats.
  */
 import { luminancePlaneCdM2 } from './colour/luminance.js';
+import { transformPlanes, type Matrix3 } from './colour/matrix3.js';
 import { scotopicOfLinearSrgb } from './colour/scotopic.js';
 import { checkGazeInFrame } from './config/validate.js';
 import type { Display, Setup, Viewer } from './config/setup.js';
@@ -17,8 +18,8 @@ import { projectionFor, pixelToTan, type Projection } from './geometry/projectio
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
 import { buildLadder, createLadderSums, createLadderWorkspace, evaluateLadder, mapPyramid } from './image/ladder-pyramid.js';
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
-import { applyOtf, otfGridFromKernel, relativeOtfGrid, type OtfGrid } from './optics/apply-otf.js';
-import { computeEyeOptics, luminanceMtfAt, type EyeOptics, type EyeOpticsFigures, type EyeOpticsInput } from './optics/eye-optics.js';
+import { applyOtf, otfGridFromKernel, relativeOtfGrid, scaleByRadialTransfer, type OtfGrid } from './optics/apply-otf.js';
+import { computeEyeOptics, luminanceMtfAt, typicalAberrationsAt5Mm, type EyeOptics, type EyeOpticsFigures, type EyeOpticsInput } from './optics/eye-optics.js';
 import { addVeil, type VeilResult } from './optics/veil.js';
 import { headsetLensSigmaPx } from './optics/headset-lens.js';
 import { depthBlurSigmaPx } from './optics/depth-blur.js';
@@ -29,6 +30,9 @@ import { computeEyeState, type EyeState } from './optics/eye-state.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
 import { fieldMeridians } from './retina/watson-rgc.js';
 import { computeCutoffMap } from './retina/cutoff-map.js';
+import { elliottLogMar, NEURAL_CONTRAST_REACH_DEG, neuralAcuityFactor, neuralContrastTransfer } from './retina/neural-ageing.js';
+import { scatterScaleCpd } from './optics/ocular-scatter.js';
+import { lensColourMatrix, primaryTransmission, STANDARD_OBSERVER_AGE_YEARS } from './optics/ocular-media.js';
 import { chromaticCutoffCpd } from './retina/colour-loss.js';
 import { BLIND_SPOT, blindSpotCentreDeg, blindSpotDistance } from './retina/blind-spot.js';
 import { lightState, type LightState } from './retina/light-level.js';
@@ -91,7 +95,39 @@ export interface DerivedNumbers {
   /** Figures of the eye's optics: Strehl ratio, white-light MTF, encircled energy, defocus per channel, stray light. */
   optics: EyeOpticsFigures & { scatteredFraction1To100Deg: number };
   percept: PerceptNumbers;
+  /** Every quantity that depends on the viewer's age, with its value and source. */
+  ageing: AgeingEntry[];
   acuity: AcuityRow[];
+}
+
+export interface AgeingEntry {
+  quantity: string;
+  value: number;
+  unit: string;
+  source: string;
+}
+
+/** The age-dependent quantities of a viewer in a given eye state. */
+function ageingEntries(viewer: Viewer, eye: EyeState): AgeingEntry[] {
+  const age = viewer.ageYears;
+  const hoa = typicalAberrationsAt5Mm(age);
+  const lens = primaryTransmission(age);
+  return [
+    { quantity: 'accommodation amplitude', value: eye.accommodationAmplitudeD, unit: 'D', source: 'Hofstetter (1950), mean: 18.5 − 0.30·age' },
+    { quantity: 'pupil diameter', value: eye.pupilDiameterMm, unit: 'mm', source: eye.pupilSource === 'setup' ? 'setup' : 'Watson & Yellott (2012), with age' },
+    { quantity: 'higher-order aberration RMS over 5 mm (typical eye)', value: Math.hypot(hoa.sphericalUm, hoa.restUm), unit: 'µm', source: viewer.wavefront ? 'not used: measured wavefront given' : 'Salmon & van de Pol (2006); growth with age Berrio, Tabernero & Artal (2010)' },
+    { quantity: 'spherical aberration over 5 mm (typical eye)', value: hoa.sphericalUm, unit: 'µm', source: viewer.wavefront ? 'not used: measured wavefront given' : 'Berrio, Tabernero & Artal (2010)' },
+    { quantity: 'short-angle scatter scale', value: scatterScaleCpd(age), unit: 'cpd', source: 'IJspeert, van den Berg & Spekreijse (1993) age term on our fitted scale' },
+    { quantity: 'wide-angle stray light age factor 1 + (A/62.5)⁴', value: 1 + (age / 62.5) ** 4, unit: '', source: 'CIE 180:2010' },
+    { quantity: 'lens density at 450 nm', value: lens.lensDensityAt450Nm, unit: '', source: 'Pokorny, Smith & Lutze (1987)' },
+    { quantity: 'red primary luminance reaching the cones, over a 32-year-old’s', value: lens.luminance.red, unit: '', source: 'Pokorny et al. (1987) on CIE 170-1:2006 2° fundamentals' },
+    { quantity: 'green primary luminance reaching the cones, over a 32-year-old’s', value: lens.luminance.green, unit: '', source: 'Pokorny et al. (1987) on CIE 170-1:2006 2° fundamentals' },
+    { quantity: 'blue primary luminance reaching the cones, over a 32-year-old’s', value: lens.luminance.blue, unit: '', source: 'Pokorny et al. (1987) on CIE 170-1:2006 2° fundamentals' },
+    { quantity: 'blue primary S-cone signal, over a 32-year-old’s', value: lens.blueToSCones, unit: '', source: 'Pokorny et al. (1987) on CIE 170-1:2006 2° fundamentals' },
+    { quantity: 'neural contrast kept at 10 cpd', value: neuralContrastTransfer(age, 10), unit: '', source: 'our proposal, fitted to Owsley, Sekuler & Siemsen (1983), Ashraf et al. (2020)' },
+    { quantity: 'neural factor on the retina’s cutoff', value: neuralAcuityFactor(age), unit: '', source: 'our proposal, fitted to Elliott, Yang & Whitaker (1995)' },
+    { quantity: 'best-corrected foveal acuity norm', value: elliottLogMar(age), unit: 'logMAR', source: 'Elliott, Yang & Whitaker (1995)' },
+  ];
 }
 
 interface Context {
@@ -106,7 +142,14 @@ interface Context {
 function contextFor(setup: Setup, frameSizePx: [number, number], gazePx?: [number, number]): Context {
   const projection = projectionFor(setup.display, frameSizePx[0], frameSizePx[1]);
   const gaze: [number, number] = gazePx ?? (setup.gaze ? [setup.gaze.xPx, setup.gaze.yPx] : [Math.floor(frameSizePx[0] / 2), Math.floor(frameSizePx[1] / 2)]);
-  return { setup, projection, gazePx: gaze, model: acuityModels[setup.models.acuity] };
+  return { setup, projection, gazePx: gaze, model: agedAcuityModel(acuityModels[setup.models.acuity], setup.viewer.ageYears) };
+}
+
+/** The acuity model with the retina's cutoff scaled by the neural factor for the viewer's age (neural-ageing.ts). */
+function agedAcuityModel(model: AcuityModel, ageYears: number): AcuityModel {
+  const factor = neuralAcuityFactor(ageYears);
+  if (factor === 1) return model;
+  return { ...model, cutoffCpd: (e, m, eyes) => factor * model.cutoffCpd(e, m, eyes) };
 }
 
 /** Distance from the eye to what it focuses on: the screen point at the gaze, or a headset's virtual image. */
@@ -185,9 +228,14 @@ function opticsFor(input: EyeOpticsInput): EyeOptics {
 
 function opticsInput(viewer: Viewer, eye: EyeState, pixelArcmin: number): EyeOpticsInput {
   return {
-    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD, cylinderD: viewer.refraction.cylinderD, axisDeg: viewer.refraction.axisDeg,
+    pupilDiameterMm: eye.pupilDiameterMm, defocusD: eye.defocusD, cylinderD: uncorrectedCylinderD(viewer), axisDeg: viewer.refraction.axisDeg,
     pixelArcmin, ageYears: viewer.ageYears, ...(viewer.wavefront ? { measured: viewer.wavefront } : {}),
   };
+}
+
+/** The cylinder left while viewing: none through glasses for the display. */
+function uncorrectedCylinderD(viewer: Viewer): number {
+  return viewer.glasses === 'display' ? 0 : viewer.refraction.cylinderD;
 }
 
 /** Share of a point's light the eye's stray light leaves in the image's core (CIE glare beyond 1°). */
@@ -211,6 +259,8 @@ function eyeModel(ctx: Context, adapting: Adapting, scotopicRatio: number, pixel
   });
   const eye = stateFor(setup.viewer);
   const optics = opticsFor(opticsInput(setup.viewer, eye, pixelArcmin));
+  // High-contrast letters are limited by resolution; the neural contrast loss of age enters the letter
+  // rule through the retina's cutoff (neural-ageing.ts), not a second time through the optics.
   const limits = letterLimits((f) => luminanceMtfAt(optics, f), coreFraction(setup.viewer), eye.blurStrengthD, ctx.model.letterFactor);
   return { eye, refEye: stateFor(setup.percept.referenceViewer), optics, limits, light: lightState(adapting.adaptingLuminanceCdM2, scotopicRatio) };
 }
@@ -222,7 +272,7 @@ function surroundCdM2(setup: Setup): number {
 /** True when two eyes in one light have the same optics (the same-display percept needs none). */
 function sameOptics(a: Viewer, b: Viewer, ea: EyeState, eb: EyeState): boolean {
   return a.ageYears === b.ageYears && ea.pupilDiameterMm === eb.pupilDiameterMm && ea.defocusD === eb.defocusD
-    && a.refraction.cylinderD === b.refraction.cylinderD && a.refraction.axisDeg === b.refraction.axisDeg
+    && uncorrectedCylinderD(a) === uncorrectedCylinderD(b) && a.refraction.axisDeg === b.refraction.axisDeg
     && JSON.stringify(a.wavefront ?? null) === JSON.stringify(b.wavefront ?? null);
 }
 
@@ -258,6 +308,7 @@ function numbersFrom(ctx: Context, frameSizePx: [number, number], adapting: Adap
         opticsCancel: sameOptics(setup.viewer, setup.percept.referenceViewer, eye, refEye),
       } : {}),
     },
+    ageing: ageingEntries(setup.viewer, eye),
     acuity: acuityTable(ctx, limits, light.mesopicFactorM),
   };
 }
@@ -391,7 +442,12 @@ export function prepareProof(frame: LinearRgb, setup: Setup, source: string, opt
     addSigma(sigmaPx);
     depth = { focusDistanceM, defocusRangeD };
   }
-  const shown = frontVariance ? blurPlanes(frame, frontVariance) : frame;
+  const blurred = frontVariance ? blurPlanes(frame, frontVariance) : frame;
+  // The ageing lens (ocular-media.ts): the cone signals of this viewer's age, shown for the reference
+  // viewer's eye (same display) or the standard observer's (the retinal image).
+  const lensAge = sameDisplay ? setup.percept.referenceViewer.ageYears : STANDARD_OBSERVER_AGE_YEARS;
+  const lens = lensColourMatrix(setup.viewer.ageYears, lensAge, setup.models.lensColour);
+  const shown = lens ? transformedCopy(blurred, lens) : blurred;
 
   onStage('optics');
   const retinalImage = createLinearRgb(frame.width, frame.height);
@@ -401,9 +457,10 @@ export function prepareProof(frame: LinearRgb, setup: Setup, source: string, opt
     for (let c = 0; c < 3; c++) retinalImage.planes[c].set(shown.planes[c]);
   } else {
     const gridsAt = (pixelArcmin: number): OtfGrid[] => {
-      const sim = opticsFor(opticsInput(setup.viewer, eye, pixelArcmin)).kernels;
-      const ref = sameDisplay ? opticsFor(opticsInput(setup.percept.referenceViewer, refEye, pixelArcmin)).kernels : undefined;
-      return channelGrids(frame.width, frame.height, sim, ref);
+      const sim = { kernels: opticsFor(opticsInput(setup.viewer, eye, pixelArcmin)).kernels, ageYears: setup.viewer.ageYears };
+      const reference = setup.percept.referenceViewer;
+      const ref = sameDisplay ? { kernels: opticsFor(opticsInput(reference, refEye, pixelArcmin)).kernels, ageYears: reference.ageYears } : undefined;
+      return channelGrids(frame.width, frame.height, pixelArcmin, sim, ref);
     };
     if (scales.length === 1) {
       applyOtf(planes, retinalImage.planes, gridsAt(scales[0]));
@@ -540,11 +597,31 @@ function blurPlanes(image: LinearRgb, variancePx2: Float32Array): LinearRgb {
 }
 
 /** Transfer grids per channel: the eye's kernels, or their ratio to the reference eye's. */
-function channelGrids(width: number, height: number, sim: EyeOptics['kernels'], ref?: EyeOptics['kernels']): OtfGrid[] {
-  // All channels share one tile size: kernels are padded to the largest.
-  const largest = Math.max(...sim.map((k) => k.size), ...(ref ?? []).map((k) => k.size));
-  const grid = (k: { kernel: Float32Array; size: number }): OtfGrid => otfGridFromKernel(width, height, padKernel(k.kernel, k.size, largest), largest);
-  return sim.map((k, c) => (ref ? relativeOtfGrid(grid(k), grid(ref[c])) : grid(k)));
+/**
+ * The OTF grids of the simulated eye's kernels (relative to the reference eye's when given), with the
+ * neural contrast transfer for each viewer's age folded in (neural-ageing.ts).
+ */
+function channelGrids(width: number, height: number, pixelArcmin: number, sim: { kernels: EyeOptics['kernels']; ageYears: number }, ref?: { kernels: EyeOptics['kernels']; ageYears: number }): OtfGrid[] {
+  const neural = (ageYears: number): ((cyclesPerPx: number) => number) | undefined => (
+    neuralContrastTransfer(ageYears, 1e3) < 1 ? (f) => neuralContrastTransfer(ageYears, (f * 60) / pixelArcmin) : undefined
+  );
+  const simNeural = neural(sim.ageYears);
+  const refNeural = ref ? neural(ref.ageYears) : undefined;
+  // All channels share one tile size: kernels are padded to the largest, and to the neural blur's reach.
+  const reachPx = simNeural || refNeural ? Math.ceil((NEURAL_CONTRAST_REACH_DEG * 60) / pixelArcmin) : 0;
+  const largest = Math.max(...sim.kernels.map((k) => k.size), ...(ref?.kernels ?? []).map((k) => k.size), 2 * reachPx + 1);
+  const grid = (k: { kernel: Float32Array; size: number }, transfer?: (f: number) => number): OtfGrid => {
+    const g = otfGridFromKernel(width, height, padKernel(k.kernel, k.size, largest), largest);
+    return transfer ? scaleByRadialTransfer(g, transfer) : g;
+  };
+  return sim.kernels.map((k, c) => (ref ? relativeOtfGrid(grid(k, simNeural), grid(ref.kernels[c], refNeural)) : grid(k, simNeural)));
+}
+
+/** A linear RGB image through a 3 × 3 matrix (a new image). */
+function transformedCopy(image: LinearRgb, m: Matrix3): LinearRgb {
+  const out = createLinearRgb(image.width, image.height);
+  transformPlanes(m, image.planes, out.planes);
+  return out;
 }
 
 /** Centres an odd-sized kernel in a larger odd size, zero around it. */

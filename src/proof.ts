@@ -34,7 +34,8 @@ export function setupCaption(setup: Setup, result: ProofResult): string {
     ? `${(Math.hypot(d.widthMm, d.heightMm) / 25.4).toFixed(1)}″ ${d.resolutionPx.join('×')} screen at ${d.viewingDistanceMm} mm`
     : `headset ${d.fieldOfViewDeg.join('°×')}° ${d.resolutionPx.join('×')}, image at ${d.focalDistanceM.toFixed(2)} m`;
   const v = setup.viewer;
-  const refraction = v.refraction.sphereD || v.refraction.cylinderD ? `, uncorrected ${v.refraction.sphereD.toFixed(2)} / ${v.refraction.cylinderD.toFixed(2)} × ${v.refraction.axisDeg}°` : '';
+  const refraction = v.glasses === 'display' ? ', glasses for the display'
+    : v.refraction.sphereD || v.refraction.cylinderD ? `, uncorrected ${v.refraction.sphereD.toFixed(2)} / ${v.refraction.cylinderD.toFixed(2)} × ${v.refraction.axisDeg}°` : '';
   const mode = setup.percept.mode === 'same-display'
     ? `shown for the reference viewer (${setup.percept.referenceViewerName ?? 'custom'}) on this display`
     : 'image on the retina';

@@ -1,6 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { LUMINANCE_WEIGHTS } from '../src/colour/srgb.js';
 import { validateSetup } from '../src/config/validate.js';
+import { neuralAcuityFactor } from '../src/retina/neural-ageing.js';
 import { createLinearRgb, type LinearRgb } from '../src/image/plane.js';
 import { computeNumbers, runProof } from '../src/pipeline.js';
 import { geislerPerryCutoffCpd } from '../src/retina/geisler-perry.js';
@@ -102,11 +103,12 @@ describe('end to end: what survives in the percept', () => {
     expect(Math.abs(meanY(percept) / meanY(frame) - 1)).toBeLessThan(0.005);
   });
 
-  test('report figures: 40 px/° at the gaze, Watson 2014 cutoffs on the temporal meridian (derived)', () => {
+  test('report figures: 40 px/° at the gaze, Watson 2014 cutoffs on the temporal meridian (derived) times the neural factor fitted for age 25', () => {
     const n = computeNumbers(setupWith());
     expect(n.display.pixelsPerDegreeAtGaze).toBeCloseTo(40, 2);
     const row10 = n.acuity.find((r) => r.eccentricityDeg === 10 && r.meridian === 'temporal')!;
-    expect(row10.cutoffCpd).toBeCloseTo(7.974, 3);
+    expect(row10.cutoffCpd).toBeCloseTo(7.974 * neuralAcuityFactor(25), 3);
+    expect(Math.abs(neuralAcuityFactor(25) - 1)).toBeLessThan(0.03);
     expect(n.acuity.map((r) => r.eccentricityDeg)).toContain(0);
   });
 });

@@ -94,6 +94,11 @@ export const viewerDecl: ObjectDecl = {
       doc: 'Pupil diameter, or "auto" from light, field size, age and eyes (Watson & Yellott 2012). Default "auto".',
     },
     eyes: { type: 'enum', values: ['right', 'left', 'both'], default: 'both', doc: 'Which eye(s) view the frame.' },
+    glasses: {
+      type: 'enum', values: ['none', 'display'], default: 'none',
+      doc: 'none: the refraction above is what the viewer sees through. display: single-vision glasses for the display\'s distance (reading or computer glasses) correct the refraction and put the display in focus without accommodating; other distances (a depth map) are out of focus by their difference.',
+      source: 'standard optics',
+    },
     wavefront: {
       type: 'object',
       doc: 'Measured aberrations of this eye (optional). When given they replace the typical eye\'s higher-order aberrations and residual; refraction still applies on top.',
@@ -173,6 +178,11 @@ export const modelsDecl: ObjectDecl = {
       type: 'number', unit: '', minimum: 0, maximum: 0.9, default: 1 / 3,
       doc: 'Share of the amplitude of accommodation kept in reserve in sustained viewing; the eye supplies at most the rest.',
       source: 'common practice (keep a third to a half in reserve for comfortable near work)',
+    },
+    lensColour: {
+      type: 'enum', values: ['received', 'adapted'], default: 'received',
+      doc: 'How the ageing lens\'s colour shows in the percept: received — the cone signals as they arrive (whites turn yellowish, blue dims; Pokorny, Smith & Lutze 1987); adapted — after the eye adapts to the display\'s white (white stays neutral, blue still dims against it).',
+      source: 'Pokorny, Smith & Lutze (1987); CIE 170-1:2006; adaptation after Werner & Schefrin (1993), from memory',
     },
     acuity: {
       type: 'enum', values: ['rgc-sampling', 'contrast-threshold'], default: 'rgc-sampling',

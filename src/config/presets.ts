@@ -80,6 +80,12 @@ export const viewerPresets: readonly Preset[] = [
     values: { ageYears: 70, refraction: { sphereD: 0, cylinderD: 0, axisDeg: 0 }, pupilDiameterMm: 'auto', eyes: 'both' },
   },
   {
+    name: 'age-70-corrected',
+    summary: '70-year-old, no refractive error, wearing glasses for the display\'s distance, both eyes',
+    basis: 'as age-70, with single-vision reading or computer glasses that put the display in focus (viewer.glasses "display")',
+    values: { ageYears: 70, refraction: { sphereD: 0, cylinderD: 0, axisDeg: 0 }, pupilDiameterMm: 'auto', eyes: 'both', glasses: 'display' },
+  },
+  {
     name: 'myope-2d',
     summary: '30-year-old myope of −2 D without glasses, both eyes',
     basis: 'uncorrected −2 D: far point at 1/2 = 0.5 m, so anything farther is blurred; accommodation 18.5 − 0.3·30 = 9.5 D',

@@ -42,6 +42,8 @@ export interface Viewer {
   refraction: { sphereD: number; cylinderD: number; axisDeg: number };
   pupilDiameterMm: number | 'auto';
   eyes: Eyes;
+  /** 'display': glasses that correct the refraction and put the display's distance in focus. */
+  glasses: 'none' | 'display';
   eyePigmentation: number;
   /** Measured Zernike coefficients (µm, ANSI j order) over a stated pupil. */
   wavefront?: { pupilDiameterMm: number; coefficientsUm: number[] };
@@ -83,6 +85,8 @@ export interface Setup {
   models: {
     /** Share of the accommodation amplitude kept in reserve in sustained viewing. */
     accommodationReserve: number;
+    /** How the ageing lens's colour shows: as received by the cones, or after adapting to the display's white. */
+    lensColour: 'received' | 'adapted';
     acuity: AcuityModelName;
     colourLoss: { redGreenFovealCutoffCpd: number; blueYellowFovealCutoffCpd: number; redGreenEccentricityScale: number; blueYellowEccentricityScale: number };
   };

@@ -263,6 +263,7 @@ export function validateSetup(input: unknown, source: string): Setup {
     },
     models: {
       accommodationReserve: models.accommodationReserve as number,
+      lensColour: models.lensColour as Setup['models']['lensColour'],
       acuity: models.acuity as Setup['models']['acuity'],
       colourLoss: models.colourLoss as Setup['models']['colourLoss'],
     },
@@ -288,6 +289,7 @@ function resolveViewer(section: Json | undefined, path: string, problems: Config
       refraction: viewer.refraction as Setup['viewer']['refraction'],
       pupilDiameterMm: (viewer.pupilDiameterMm as number | 'auto' | undefined) ?? 'auto',
       eyes: viewer.eyes as Setup['viewer']['eyes'],
+      glasses: viewer.glasses as Setup['viewer']['glasses'],
       eyePigmentation: viewer.eyePigmentation as number,
       ...wavefront,
     },

@@ -184,3 +184,24 @@ export function relativeOtfGrid(sim: OtfGrid, ref: OtfGrid): OtfGrid {
   }
   return { fftWidth: sim.fftWidth, fftHeight: sim.fftHeight, marginPx: Math.max(sim.marginPx, ref.marginPx), transfer, ...(transferIm ? { transferIm } : {}) };
 }
+
+/**
+ * The grid multiplied by a radial transfer given per cycles per pixel (a new grid). The transfer's
+ * own reach must fit in the grid's margin.
+ */
+export function scaleByRadialTransfer(grid: OtfGrid, transferOfCyclesPerPx: (f: number) => number): OtfGrid {
+  const { fftWidth, fftHeight } = grid;
+  const transfer = Float32Array.from(grid.transfer);
+  const transferIm = grid.transferIm ? Float32Array.from(grid.transferIm) : undefined;
+  for (let ky = 0; ky < fftHeight; ky++) {
+    const fy = (ky <= fftHeight / 2 ? ky : ky - fftHeight) / fftHeight;
+    for (let kx = 0; kx < fftWidth; kx++) {
+      const fx = (kx <= fftWidth / 2 ? kx : kx - fftWidth) / fftWidth;
+      const i = ky * fftWidth + kx;
+      const t = transferOfCyclesPerPx(Math.sqrt(fx * fx + fy * fy));
+      transfer[i] *= t;
+      if (transferIm) transferIm[i] *= t;
+    }
+  }
+  return { ...grid, transfer, ...(transferIm ? { transferIm } : {}) };
+}

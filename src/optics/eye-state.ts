@@ -42,7 +42,11 @@ export function computeEyeState(input: EyeStateInput): EyeState {
     ? watsonYellottPupilMm({ luminanceCdM2: input.adaptingLuminanceCdM2, fieldDiameterDeg: input.adaptingFieldDeg, ageYears: viewer.ageYears, eyes: viewer.eyes === 'both' ? 2 : 1 })
     : { pupilDiameterMm: viewer.pupilDiameterMm, ageClamped: false };
   const amplitudeD = hofstetterAmplitudeD(viewer.ageYears);
-  const { sphereD, cylinderD } = viewer.refraction;
+  // Glasses for the display correct the refraction and add the display's vergence: the eye sees as a
+  // myope whose far point is the display, with no cylinder.
+  const forDisplay = viewer.glasses === 'display';
+  const sphereD = forDisplay ? -1 / input.focalDistanceM : viewer.refraction.sphereD;
+  const cylinderD = forDisplay ? 0 : viewer.refraction.cylinderD;
   // The eye focuses for the spherical equivalent (sphere + half the cylinder), the circle of least confusion.
   const state = accommodationFor(input.focalDistanceM, sphereD + cylinderD / 2, amplitudeD, input.accommodationReserve);
   const astigmatismD = Math.abs(cylinderD);

@@ -38,7 +38,7 @@ describe('residual defocus and blur circle', () => {
 
   test('in sustained viewing a third of the amplitude stays in reserve: a 50-year-old +1.5 D hyperope at 70 cm is left 0.60 D out of focus (Hofstetter 1950 mean 3.5 D; reserve: common practice)', () => {
     const eye = computeEyeState({
-      viewer: { ageYears: 50, refraction: { sphereD: 1.5, cylinderD: 0, axisDeg: 0 }, pupilDiameterMm: 3, eyes: 'both', eyePigmentation: 0.5 },
+      viewer: { ageYears: 50, refraction: { sphereD: 1.5, cylinderD: 0, axisDeg: 0 }, pupilDiameterMm: 3, eyes: 'both', glasses: 'none', eyePigmentation: 0.5 },
       adaptingLuminanceCdM2: 100, adaptingFieldDeg: 60, focalDistanceM: 0.7, accommodationReserve: 1 / 3,
     });
     // Demand 1/0.7 + 1.5 = 2.929 D; usable 2/3 × 3.5 = 2.333 D; residual 0.595 D.
@@ -51,7 +51,7 @@ describe('residual defocus and blur circle', () => {
 
   test('cylinder adds as half its power to the blur strength (power vectors, Thibos et al. 2004, from memory)', () => {
     const eye = computeEyeState({
-      viewer: { ageYears: 30, refraction: { sphereD: 0, cylinderD: -1, axisDeg: 90 }, pupilDiameterMm: 4, eyes: 'both', eyePigmentation: 0.5 },
+      viewer: { ageYears: 30, refraction: { sphereD: 0, cylinderD: -1, axisDeg: 90 }, pupilDiameterMm: 4, eyes: 'both', glasses: 'none', eyePigmentation: 0.5 },
       adaptingLuminanceCdM2: 100, adaptingFieldDeg: 60, focalDistanceM: 1, accommodationReserve: 1 / 3,
     });
     // Spherical equivalent −0.5 D at 1 m: the eye relaxes to 0.5 D demand, no spherical residual; J = 0.5 D.

@@ -81,9 +81,9 @@ describe('isoluminant colour near and far from the gaze', () => {
     kept.forEach((k, i) => expect(Math.abs(k - predicted[i]), `kept ${k.toFixed(3)}, predicted ${predicted[i].toFixed(3)}`).toBeLessThan(0.06));
   });
 
-  test('in the retinal image, the checker at 5° keeps, relative to one at the gaze, what the threshold model predicts (same sources; the optics are alike on both)', async () => {
+  test('in the retinal image of a 32-year-old (the CIE 170-1 standard observer, whose lens leaves the frame’s colours as they are), the checker at 5° keeps, relative to one at the gaze, what the threshold model predicts (same sources; the optics are alike on both)', async () => {
     const { frame, checkers } = checkerFrame([0, 5]);
-    const setup = screenSetup(W, H, PPD, { viewer: { preset: 'age-25' }, percept: { mode: 'retinal-image' } });
+    const setup = screenSetup(W, H, PPD, { viewer: { ageYears: 32 }, percept: { mode: 'retinal-image' } });
     const { percept } = await proofThroughFiles(frame, setup);
     const [atGaze, at5] = checkers.map(({ box, cell, origin }) => checkerFundamental(percept, box, cell, origin));
     const predicted = transfer(varianceDeg2(5)) / transfer(varianceDeg2(0));
