@@ -29,8 +29,11 @@ const MIN_LEVEL_SIDE = 4;
 
 /** Variance (level-0 px²) of ladder element n: 2^n − 1. */
 export function ladderElementVariance(n: number): number {
-  return 2 ** n - 1;
+  return n < ELEMENT_VARIANCES.length ? ELEMENT_VARIANCES[n] : 2 ** n - 1;
 }
+
+/** Element variances 2^n − 1 for every element of the largest ladder, and one beyond. */
+export const ELEMENT_VARIANCES: Float64Array = Float64Array.from({ length: 2 * 12 + 2 }, (_, n) => 2 ** n - 1);
 
 export function ladderLevelCount(width: number, height: number): number {
   let levels = 1;
@@ -48,15 +51,12 @@ export interface LadderWorkspace {
   width: number;
   height: number;
   rows: Float32Array;
-  /** Coefficients of the two families at the level being evaluated. */
-  c0: Float32Array;
-  c1: Float32Array;
   /** Running sums of the coefficients, for the ladder size last evaluated. */
   weightSums?: { key: string; planes: Float32Array[] };
 }
 
 export function createLadderWorkspace(width: number, height: number): LadderWorkspace {
-  return { width, height, rows: new Float32Array(width * height), c0: new Float32Array(width * height), c1: new Float32Array(width * height) };
+  return { width, height, rows: new Float32Array(width * height) };
 }
 
 /** Running sums for evaluating one ladder (one array per level above 0); reuse across evaluations. */
@@ -93,38 +93,73 @@ export function buildLadder(src: Float32Array, width: number, height: number, ws
 export type LadderCoefficients = (level: number, c0: Float32Array, c1: Float32Array, width: number, height: number) => void;
 
 /**
- * Evaluates Σ c_n·element_n of each ladder (all of one size) into its `out` (level-0 size), with the
- * same coefficients, computed once per level. The coefficients are evaluated at each level's own
- * resolution, so where they change fast their sum at a pixel can stray from 1; the sum is carried
- * along (as the evaluation of a ladder of ones) and divided out, so a uniform plane stays exactly
- * uniform. `sums[p]` are ladder p's running sums (createLadderSums; one more set for the weights is
- * taken from the workspace); `out` may be any array but the ladders' own.
+ * Coefficients computed once for every level of a ladder's size, with the reciprocal of their
+ * expanded sum at level 0 (the evaluation of a ladder of ones; 0 where it vanishes): a filter used
+ * for several ladders or several evaluations is set up once.
  */
-export function evaluateLadders(pyrs: readonly LadderPyramid[], coefficients: LadderCoefficients, outs: readonly Float32Array[], sums: readonly Float32Array[][], ws: LadderWorkspace): void {
+export interface LadderWeights {
+  sizes: [number, number][];
+  c0: Float32Array[];
+  c1: Float32Array[];
+  inverseTotal: Float32Array;
+}
+
+/** Fills and keeps a filter's coefficients for ladders of `pyr`'s size (in `into`'s arrays when it fits). */
+export function ladderWeights(pyr: Pick<LadderPyramid, 'levels' | 'sizes'>, coefficients: LadderCoefficients, ws: LadderWorkspace, into?: LadderWeights): LadderWeights {
+  const top = pyr.levels - 1;
+  const reuse = into && into.c0.length === pyr.levels && into.sizes[0][0] === pyr.sizes[0][0] && into.sizes[0][1] === pyr.sizes[0][1];
+  const c0: Float32Array[] = reuse ? into.c0 : [];
+  const c1: Float32Array[] = reuse ? into.c1 : [];
+  const sums = weightSums(ws, pyr);
+  for (let k = top; k >= 0; k--) {
+    const [w, h] = pyr.sizes[k];
+    const n = w * h;
+    const a = reuse ? c0[k] : new Float32Array(n);
+    const b = reuse ? c1[k] : new Float32Array(n);
+    coefficients(k, a, b, w, h);
+    c0[k] = a;
+    c1[k] = b;
+    const wsum = sums[k];
+    if (k < top) expand7(sums[k + 1], pyr.sizes[k + 1][0], pyr.sizes[k + 1][1], wsum, w, h, ws.rows);
+    else wsum.fill(0, 0, n);
+    for (let i = 0; i < n; i++) wsum[i] += a[i] + b[i];
+  }
+  const total = sums[0];
+  const inverseTotal = reuse ? into.inverseTotal : new Float32Array(total.length);
+  for (let i = 0; i < total.length; i++) inverseTotal[i] = total[i] > 1e-6 ? 1 / total[i] : 0;
+  return { sizes: pyr.sizes, c0, c1, inverseTotal };
+}
+
+/**
+ * Evaluates Σ c_n·element_n of each ladder (all of one size) into its `out` (level-0 size), with the
+ * same coefficients. The coefficients are evaluated at each level's own resolution, so where they
+ * change fast their sum at a pixel can stray from 1; the sum is carried along (as the evaluation of
+ * a ladder of ones) and divided out, so a uniform plane stays exactly uniform. `sums[p]` are ladder
+ * p's running sums (createLadderSums); `out` may be any array but the ladders' own. Coefficients
+ * given as a function are computed here (ladderWeights) and not kept.
+ */
+export function evaluateLadders(pyrs: readonly LadderPyramid[], coefficients: LadderCoefficients | LadderWeights, outs: readonly Float32Array[], sums: readonly Float32Array[][], ws: LadderWorkspace): void {
   const first = pyrs[0];
+  const weights = typeof coefficients === 'function' ? ladderWeights(first, coefficients, ws) : coefficients;
   const top = first.levels - 1;
-  const { c0, c1 } = ws;
-  const weights = weightSums(ws, first);
   for (let k = top; k >= 0; k--) {
     const [w, h] = first.sizes[k];
     const n = w * h;
-    coefficients(k, c0, c1, w, h);
-    const wsum = weights[k];
-    if (k < top) expand7(weights[k + 1], first.sizes[k + 1][0], first.sizes[k + 1][1], wsum, w, h, ws.rows);
-    else wsum.fill(0, 0, n);
-    for (let i = 0; i < n; i++) wsum[i] += c0[i] + c1[i];
-    pyrs.forEach((pyr, p) => {
+    const c0 = weights.c0[k];
+    const c1 = weights.c1[k];
+    for (let p = 0; p < pyrs.length; p++) {
+      const pyr = pyrs[p];
       const sum = k === 0 ? outs[p] : sums[p][k];
       if (k < top) expand7(sums[p][k + 1], pyr.sizes[k + 1][0], pyr.sizes[k + 1][1], sum, w, h, ws.rows);
       else sum.fill(0, 0, n);
       const g = pyr.base[k];
       const b = pyr.blurred[k];
       for (let i = 0; i < n; i++) sum[i] += c0[i] * g[i] + c1[i] * b[i];
-    });
+    }
   }
-  const total = weights[0];
+  const inverse = weights.inverseTotal;
   const n0 = first.sizes[0][0] * first.sizes[0][1];
-  for (const out of outs) for (let i = 0; i < n0; i++) if (total[i] > 1e-6) out[i] /= total[i];
+  for (const out of outs) for (let i = 0; i < n0; i++) out[i] *= inverse[i];
 }
 
 /** Running sums of the coefficients themselves, sized for a ladder, kept in the workspace. */
@@ -135,7 +170,7 @@ function weightSums(ws: LadderWorkspace, pyr: Pick<LadderPyramid, 'levels' | 'si
 }
 
 /** One ladder: see evaluateLadders. */
-export function evaluateLadder(pyr: LadderPyramid, coefficients: LadderCoefficients, out: Float32Array, sums: Float32Array[], ws: LadderWorkspace): Float32Array {
+export function evaluateLadder(pyr: LadderPyramid, coefficients: LadderCoefficients | LadderWeights, out: Float32Array, sums: Float32Array[], ws: LadderWorkspace): Float32Array {
   evaluateLadders([pyr], coefficients, [out], [sums], ws);
   return out;
 }

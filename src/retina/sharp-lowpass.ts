@@ -11,7 +11,7 @@
  * ladder element of variance v blurred by e is the element of variance v + e, so each coefficient is
  * moved up the ladder, split linearly in variance between the two elements that bracket v + e.
  */
-import { ladderElementVariance, type LadderCoefficients } from '../image/ladder-pyramid.js';
+import { ELEMENT_VARIANCES, type LadderCoefficients } from '../image/ladder-pyramid.js';
 import { SHARP_DELTA_MIN, SHARP_DELTA_STEP, SHARP_TABLE_NODES, SHARP_TABLES } from './sharp-lowpass-table.js';
 
 /** The frame's own limit: nothing finer than 0.5 cycles/px exists in it. */
@@ -72,53 +72,182 @@ export function sharpCoefficient(n: number, lc: number, levels: number): number 
 }
 
 /**
- * Where an extra blur of variance `extra` (level-0 px²) moves the coefficient of element n: the two
- * elements bracketing v_n + extra and the share going to the upper one.
+ * sharpCoefficient tabulated for every element of a ladder of `levels` levels, every 1/64 octave of
+ * log2 cutoff (linear between): the fast path of the per-pixel filter (tests compare it with the
+ * direct formula).
  */
-export function ladderShift(n: number, extra: number, elements: number): [number, number, number] {
-  const v = ladderElementVariance(n) + extra;
-  let j = Math.floor(Math.log2(v + 1));
-  if (j >= elements - 1) return [elements - 1, elements - 1, 0];
-  // Guard against rounding in log2 at exact powers of two.
-  if (ladderElementVariance(j + 1) <= v) j++;
-  if (j >= elements - 1) return [elements - 1, elements - 1, 0];
-  const lo = ladderElementVariance(j);
-  const hi = ladderElementVariance(j + 1);
-  return [j, j + 1, (v - lo) / (hi - lo)];
+interface SharpTable {
+  first: number;
+  stepsPerOctave: number;
+  /** One table per element. */
+  values: Float32Array[];
+}
+
+const SHARP_TABLE_STEPS_PER_OCTAVE = 64;
+const sharpTables = new Map<number, SharpTable>();
+
+function sharpTable(levels: number): SharpTable {
+  let table = sharpTables.get(levels);
+  if (!table) {
+    const first = LOG2_CUTOFF_MIN;
+    const steps = Math.ceil((LOG2_IDENTITY - first) * SHARP_TABLE_STEPS_PER_OCTAVE) + 2;
+    const values = Array.from({ length: 2 * levels }, (_, n) => Float32Array.from({ length: steps }, (_, s) => sharpCoefficient(n, first + s / SHARP_TABLE_STEPS_PER_OCTAVE, levels)));
+    table = { first, stepsPerOctave: SHARP_TABLE_STEPS_PER_OCTAVE, values };
+    sharpTables.set(levels, table);
+  }
+  return table;
+}
+
+/** Tabulated coefficient of element n at log2 cutoff lc (identity beyond the table). */
+function tabulated(table: SharpTable, n: number, lc: number): number {
+  if (lc >= LOG2_IDENTITY) return n === 0 ? 1 : 0;
+  const values = table.values[n];
+  const u = Math.max(0, (lc - table.first) * table.stepsPerOctave);
+  const i = Math.min(values.length - 2, Math.floor(u));
+  return values[i] + (values[i + 1] - values[i]) * (u - i);
+}
+
+/** Where splitOnto puts its two shares (kept to avoid an allocation per call in the per-pixel loops). */
+const split = new Float64Array(2);
+
+/**
+ * Splits coefficient c of an element of variance v (level-0 px²) onto elements m0 and m0 + 1,
+ * linearly in variance between the two elements that bracket v: the shares land in `split`.
+ * `elements` is the ladder's element count; variance beyond its top goes to the top element.
+ */
+function splitOnto(c: number, v: number, m0: number, elements: number): void {
+  const E = ELEMENT_VARIANCES;
+  const top = elements - 1;
+  split[0] = 0;
+  split[1] = 0;
+  if (v >= E[top]) {
+    if (m0 === top) split[0] = c;
+    else if (m0 + 1 === top) split[1] = c;
+  } else if (m0 > 0 && v < E[m0 - 1]) {
+    // Lands on finer elements only.
+  } else if (v < E[m0]) {
+    // Between m0 − 1 and m0: m0 takes the upper share.
+    split[0] = (c * (v - E[m0 - 1])) / (E[m0] - E[m0 - 1]);
+  } else if (v < E[m0 + 1]) {
+    const t = (v - E[m0]) / (E[m0 + 1] - E[m0]);
+    split[0] = c * (1 - t);
+    split[1] = c * t;
+  } else if (m0 + 2 <= top && v < E[m0 + 2]) {
+    split[1] = c * (1 - (v - E[m0 + 1]) / (E[m0 + 2] - E[m0 + 1]));
+  }
+}
+
+/**
+ * The coefficients of elements 2k and 2k + 1 with an extra blur folded in, tabulated per level k
+ * over log2 cutoff (1/12 octave) and log2(1 + extra variance) (1/6 octave, to 2^20 px²): the gather over finer
+ * elements (sharpWithExtra) done once per ladder size instead of per pixel.
+ */
+interface ExtraTable {
+  lcSteps: number;
+  extraSteps: number;
+  /** Per level, interleaved (c0, c1) over [extra step][lc step]. */
+  values: Float32Array[];
+}
+
+const EXTRA_LC_PER_OCTAVE = 12;
+const EXTRA_LOG_PER_OCTAVE = 6;
+const EXTRA_LOG_MAX = 20;
+const extraTables = new Map<number, ExtraTable>();
+
+/** The gathered coefficients of elements m0, m0 + 1 at one (lc, extra): the slow reference. */
+export function sharpWithExtra(m0: number, lc: number, extra: number, levels: number): [number, number] {
+  const table = sharpTable(levels);
+  const elements = 2 * levels;
+  let a = 0;
+  let b = 0;
+  for (let src = 0; src <= m0 + 1; src++) {
+    const c = tabulated(table, src, lc);
+    if (c === 0) continue;
+    splitOnto(c, ELEMENT_VARIANCES[src] + extra, m0, elements);
+    a += split[0];
+    b += split[1];
+  }
+  return [a, b];
+}
+
+function extraTable(levels: number): ExtraTable {
+  let table = extraTables.get(levels);
+  if (!table) {
+    const lcSteps = Math.ceil((LOG2_IDENTITY - LOG2_CUTOFF_MIN) * EXTRA_LC_PER_OCTAVE) + 2;
+    const extraSteps = EXTRA_LOG_MAX * EXTRA_LOG_PER_OCTAVE + 2;
+    const values = Array.from({ length: levels }, (_, k) => {
+      const v = new Float32Array(2 * lcSteps * extraSteps);
+      for (let e = 0; e < extraSteps; e++) {
+        const extra = 2 ** (e / EXTRA_LOG_PER_OCTAVE) - 1;
+        for (let l = 0; l < lcSteps; l++) {
+          const [a, b] = sharpWithExtra(2 * k, LOG2_CUTOFF_MIN + l / EXTRA_LC_PER_OCTAVE, extra, levels);
+          v[2 * (e * lcSteps + l)] = a;
+          v[2 * (e * lcSteps + l) + 1] = b;
+        }
+      }
+      return v;
+    });
+    table = { lcSteps, extraSteps, values };
+    extraTables.set(levels, table);
+  }
+  return table;
 }
 
 /**
  * Coefficients of the sharp low-pass for a ladder, from log2 cutoff maps (cycles per level-0 px) at
- * each level's resolution and, optionally, extra-blur variance maps (level-0 px²).
+ * each level's resolution and, optionally, maps of an extra blur as log2(1 + variance in level-0 px²).
  */
-export function sharpLowpassCoefficients(log2CutoffMaps: readonly Float32Array[], levels: number, extraVarianceMaps?: readonly Float32Array[]): LadderCoefficients {
-  const elements = 2 * levels;
+export function sharpLowpassCoefficients(log2CutoffMaps: readonly Float32Array[], levels: number, extraLog2Maps?: readonly Float32Array[]): LadderCoefficients {
+  const table = sharpTable(levels);
+  const withExtra = extraLog2Maps ? extraTable(levels) : undefined;
+  const smallExtraLog2 = Math.log2(1 + 1e-6);
+  const identityExtraLog2 = Math.log2(1.01);
+  const first = table.first;
+  const perOctave = table.stepsPerOctave;
   return (k, c0, c1, width, height) => {
     const lc = log2CutoffMaps[k];
-    const extraMap = extraVarianceMaps?.[k];
+    const extraMap = extraLog2Maps?.[k];
     const n = width * height;
     const m0 = 2 * k;
+    const t0 = table.values[m0];
+    const t1 = table.values[m0 + 1];
+    const last = t0.length - 2;
+    const lcSteps = withExtra ? withExtra.lcSteps : 0;
+    const extraSteps = withExtra ? withExtra.extraSteps : 0;
+    const v = withExtra ? withExtra.values[k] : t0;
     for (let i = 0; i < n; i++) {
-      const extra = extraMap ? extraMap[i] : 0;
-      if (!(extra > 1e-6)) {
-        c0[i] = sharpCoefficient(m0, lc[i], levels);
-        c1[i] = sharpCoefficient(m0 + 1, lc[i], levels);
+      const l = lc[i];
+      const extraLog2 = extraMap ? extraMap[i] : 0;
+      if (!(extraLog2 > smallExtraLog2) || !withExtra || (l >= LOG2_IDENTITY && extraLog2 < identityExtraLog2)) {
+        if (l >= LOG2_IDENTITY) {
+          c0[i] = m0 === 0 ? 1 : 0;
+          c1[i] = 0;
+        } else {
+          const u = (l - first) * perOctave;
+          const j = u <= 0 ? 0 : u >= last ? last : Math.floor(u);
+          const f = u <= 0 ? 0 : u - j;
+          c0[i] = t0[j] + (t0[j + 1] - t0[j]) * f;
+          c1[i] = t1[j] + (t1[j + 1] - t1[j]) * f;
+        }
         continue;
       }
-      // Gather from every finer or equal element whose shifted position lands on m0 or m0 + 1.
-      let a = 0;
-      let b = 0;
-      for (let src = 0; src <= m0 + 1; src++) {
-        const c = sharpCoefficient(src, lc[i], levels);
-        if (c === 0) continue;
-        const [lo, hi, t] = ladderShift(src, extra, elements);
-        if (lo === m0) a += c * (1 - t);
-        else if (lo === m0 + 1) b += c * (1 - t);
-        if (hi === m0 && lo !== hi) a += c * t;
-        else if (hi === m0 + 1 && lo !== hi) b += c * t;
-      }
-      c0[i] = a;
-      c1[i] = b;
+      // Bilinear in (lc, log2(1 + extra)) on the gathered table.
+      let lu = (l - LOG2_CUTOFF_MIN) * EXTRA_LC_PER_OCTAVE;
+      lu = lu < 0 ? 0 : lu > lcSteps - 1.0001 ? lcSteps - 1.0001 : lu;
+      let eu = extraLog2 * EXTRA_LOG_PER_OCTAVE;
+      eu = eu > extraSteps - 1.0001 ? extraSteps - 1.0001 : eu;
+      const l0 = Math.floor(lu);
+      const e0 = Math.floor(eu);
+      const lt = lu - l0;
+      const et = eu - e0;
+      const p00 = 2 * (e0 * lcSteps + l0);
+      const p10 = p00 + 2 * lcSteps;
+      const w00 = (1 - lt) * (1 - et);
+      const w01 = lt * (1 - et);
+      const w10 = (1 - lt) * et;
+      const w11 = lt * et;
+      c0[i] = w00 * v[p00] + w01 * v[p00 + 2] + w10 * v[p10] + w11 * v[p10 + 2];
+      c1[i] = w00 * v[p00 + 1] + w01 * v[p00 + 3] + w10 * v[p10 + 1] + w11 * v[p10 + 3];
     }
   };
 }
@@ -135,11 +264,9 @@ export function gaussianLadderCoefficients(varianceMaps: readonly Float32Array[]
     const n = width * height;
     const m0 = 2 * k;
     for (let i = 0; i < n; i++) {
-      const [lo, hi, t] = ladderShift(0, Math.max(0, vmap[i]), elements);
-      c0[i] = (lo === m0 ? 1 - t : 0) + (hi === m0 && hi !== lo ? t : 0);
-      c1[i] = (lo === m0 + 1 ? 1 - t : 0) + (hi === m0 + 1 && hi !== lo ? t : 0);
-      if (lo === hi && lo === m0) c0[i] = 1;
-      if (lo === hi && lo === m0 + 1) c1[i] = 1;
+      splitOnto(1, vmap[i] > 0 ? vmap[i] : 0, m0, elements);
+      c0[i] = split[0];
+      c1[i] = split[1];
     }
   };
 }
