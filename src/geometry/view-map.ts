@@ -47,34 +47,61 @@ export function arcminPerPxAt(p: Projection, a: number, b: number): number {
   return Math.sqrt(p.kxPerPx * p.kyPerPx * cosAlpha * cosAlpha * cosAlpha) * ARCMIN_PER_RAD;
 }
 
-export function computeViewMap(p: Projection, gazePx: [number, number]): ViewMap {
+/** Pixel sizes by projection: they do not depend on the gaze, so a gaze change reuses them. */
+const pixelSizes = new WeakMap<Projection, Float32Array>();
+
+/** Angular size of every pixel (arcmin), computed once per projection. */
+function pixelSizesOf(p: Projection): Float32Array {
+  let sizes = pixelSizes.get(p);
+  if (!sizes) {
+    const { widthPx: width, heightPx: height } = p;
+    sizes = new Float32Array(width * height);
+    const kArcmin = Math.sqrt(p.kxPerPx * p.kyPerPx) * ARCMIN_PER_RAD;
+    for (let y = 0; y < height; y++) {
+      const b = -(y + 0.5 - p.cyPx) * p.kyPerPx + p.tyTan;
+      for (let x = 0; x < width; x++) {
+        const a = (x + 0.5 - p.cxPx) * p.kxPerPx + p.txTan;
+        const norm = 1 / Math.sqrt(a * a + b * b + 1);
+        // Same as arcminPerPxAt: sqrt(kx·ky·cos³α) with cos α = norm.
+        sizes[y * width + x] = kArcmin * Math.sqrt(norm * norm * norm);
+      }
+    }
+    pixelSizes.set(p, sizes);
+  }
+  return sizes;
+}
+
+/**
+ * The view map of a gaze; `arcminPerPx` is shared between the gazes of one projection (read it, do
+ * not write it). `into`: a view map of the same projection whose arrays are reused.
+ */
+export function computeViewMap(p: Projection, gazePx: [number, number], into?: ViewMap): ViewMap {
   const { widthPx: width, heightPx: height } = p;
   const n = width * height;
-  const eccentricityDeg = new Float32Array(n);
-  const meridianDeg = new Float32Array(n);
-  const arcminPerPx = new Float32Array(n);
+  const reuse = into && into.eccentricityDeg.length === n;
+  const eccentricityDeg = reuse ? into.eccentricityDeg : new Float32Array(n);
+  const meridianDeg = reuse ? into.meridianDeg : new Float32Array(n);
   // The rotation as a matrix, applied inline: this loop runs once per pixel.
   const r = mat3.fromQuat(mat3.create(), gazeRotation(gazeDirection(p, gazePx)));
-  const kArcmin = Math.sqrt(p.kxPerPx * p.kyPerPx) * ARCMIN_PER_RAD;
+  const [r0, r1, r2, r3, r4, r5, r6, r7, r8] = r;
+  const toDeg = 180 / Math.PI;
   for (let y = 0; y < height; y++) {
     const b = -(y + 0.5 - p.cyPx) * p.kyPerPx + p.tyTan;
+    const o = y * width;
     for (let x = 0; x < width; x++) {
-      const i = y * width + x;
       const a = (x + 0.5 - p.cxPx) * p.kxPerPx + p.txTan;
-      const norm = 1 / Math.sqrt(a * a + b * b + 1);
-      // gl-matrix mat3 is column-major: row i of the rotation is (r[i], r[i + 3], r[i + 6]).
-      const dx = (r[0] * a + r[3] * b + r[6]) * norm;
-      const dy = (r[1] * a + r[4] * b + r[7]) * norm;
-      const dz = (r[2] * a + r[5] * b + r[8]) * norm;
+      // gl-matrix mat3 is column-major: row i of the rotation is (r[i], r[i + 3], r[i + 6]). The
+      // direction need not be normalised for the angles.
+      const dx = r0 * a + r3 * b + r6;
+      const dy = r1 * a + r4 * b + r7;
+      const dz = r2 * a + r5 * b + r8;
       // atan2 keeps precision near the gaze, where acos of a value near 1 would not.
-      eccentricityDeg[i] = radToDeg(Math.atan2(Math.sqrt(dx * dx + dy * dy), dz));
-      const m = radToDeg(Math.atan2(dy, dx));
-      meridianDeg[i] = m < 0 ? m + 360 : m;
-      // Same as arcminPerPxAt: sqrt(kx·ky·cos³α) with cos α = norm.
-      arcminPerPx[i] = kArcmin * Math.sqrt(norm * norm * norm);
+      eccentricityDeg[o + x] = Math.atan2(Math.sqrt(dx * dx + dy * dy), dz) * toDeg;
+      const m = Math.atan2(dy, dx) * toDeg;
+      meridianDeg[o + x] = m < 0 ? m + 360 : m;
     }
   }
-  return { width, height, eccentricityDeg, meridianDeg, arcminPerPx, gazePx };
+  return { width, height, eccentricityDeg, meridianDeg, arcminPerPx: pixelSizesOf(p), gazePx: [gazePx[0], gazePx[1]] };
 }
 
 /**

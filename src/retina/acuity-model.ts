@@ -15,6 +15,8 @@ export interface AcuityModel {
    * either model (scripts/fit-letter-rule.ts).
    */
   letterFactor: number;
+  /** What distinguishes a derived model from its base (e.g. the neural factor of an age), for caches. */
+  variant?: string;
 }
 
 export const acuityModels: Record<AcuityModelName, AcuityModel> = {
