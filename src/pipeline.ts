@@ -23,21 +23,19 @@ import { computeEyeOptics, luminanceMtfAt, typicalAberrationsAt5Mm, type EyeOpti
 import { addVeil, type VeilResult } from './optics/veil.js';
 import { headsetLensSigmaPx } from './optics/headset-lens.js';
 import { depthBlurSigmaPx } from './optics/depth-blur.js';
-import { offAxisVarianceDeg2 } from './optics/off-axis.js';
 import { kernelScales, scaleWeights } from './optics/scale-blend.js';
 import { GLARE_MAX_DEG, scatteredFraction, VEIL_FROM_DEG } from './optics/stray-light.js';
 import { computeEyeState, type EyeState } from './optics/eye-state.js';
 import { acuityModels, type AcuityModel } from './retina/acuity-model.js';
 import { fieldMeridians } from './retina/watson-rgc.js';
-import { computeCutoffMap } from './retina/cutoff-map.js';
+import { computeGazeMaps, type GazeMaps } from './retina/gaze-maps.js';
 import { elliottLogMar, NEURAL_CONTRAST_REACH_DEG, neuralAcuityFactor, neuralContrastTransfer } from './retina/neural-ageing.js';
 import { scatterScaleCpd } from './optics/ocular-scatter.js';
 import { lensColourMatrix, primaryTransmission, STANDARD_OBSERVER_AGE_YEARS } from './optics/ocular-media.js';
-import { chromaticCutoffCpd } from './retina/colour-loss.js';
-import { BLIND_SPOT, blindSpotCentreDeg, blindSpotDistance } from './retina/blind-spot.js';
+import { BLIND_SPOT, blindSpotCentreDeg } from './retina/blind-spot.js';
 import { lightState, type LightState } from './retina/light-level.js';
 import { prepareRetina, renderPercept, type PreparedRetina } from './retina/percept.js';
-import { gaussianLadderCoefficients, gaussianVarianceForCutoff } from './retina/sharp-lowpass.js';
+import { gaussianLadderCoefficients } from './retina/sharp-lowpass.js';
 import { ROD_PEAK_CUTOFF_CPD, rodCutoffCpd, SCOTOPIC_PER_PHOTOPIC_WHITE } from './retina/rod-vision.js';
 
 /** Eccentricities listed in the acuity table, deg. */
@@ -149,7 +147,7 @@ function contextFor(setup: Setup, frameSizePx: [number, number], gazePx?: [numbe
 function agedAcuityModel(model: AcuityModel, ageYears: number): AcuityModel {
   const factor = neuralAcuityFactor(ageYears);
   if (factor === 1) return model;
-  return { ...model, cutoffCpd: (e, m, eyes) => factor * model.cutoffCpd(e, m, eyes) };
+  return { ...model, variant: `neural factor ${factor}`, cutoffCpd: (e, m, eyes) => factor * model.cutoffCpd(e, m, eyes) };
 }
 
 /** Distance from the eye to what it focuses on: the screen point at the gaze, or a headset's virtual image. */
@@ -340,6 +338,8 @@ export interface ProofResult {
   smallestLetterPx: Float32Array;
   /** What sets the smallest letter at each pixel: an index into LETTER_LIMITS. */
   letterLimitIndex: Uint8Array;
+  /** Every per-pixel map of the gaze (the retina's filters, cutoffs and letter sizes). */
+  maps: GazeMaps;
   /** Verdicts for the frame's text labels, when labels were given. */
   labels?: LabelVerdict[];
   /** The eye's point-spread functions and optical figures. */
@@ -495,86 +495,58 @@ export function prepareProof(frame: LinearRgb, setup: Setup, source: string, opt
   const coneShare = model.light.mesopicFactorM;
   const colourMaxCpd = Math.max(setup.models.colourLoss.redGreenFovealCutoffCpd, setup.models.colourLoss.blueYellowFovealCutoffCpd);
   const retina = prepareRetina(retinalImage, {
-    // On the same display colour at the gaze is kept to the pixel, so it is worked at full size.
-    colourLevel: sameDisplay ? 0 : coarseLevel(colourMaxCpd, minArcminPerPx),
+    // At least one reduction: below its own blur the full-size colour is mixed in (percept.ts).
+    colourLevel: Math.max(frame.width >= 64 && frame.height >= 64 ? 1 : 0, coarseLevel(colourMaxCpd, minArcminPerPx)),
     ...(coneShare < 1 ? { rodLevel: coarseLevel(ROD_PEAK_CUTOFF_CPD, minArcminPerPx) } : {}),
   });
   return { frame, setup, ctx, adapting, model, retinalImage, retina, veil, ...(depth ? { depth } : {}), minArcminPerPx };
 }
 
+export interface LookOptions {
+  /** Where the viewer looks, frame px (default: the prepared gaze). */
+  gazePx?: [number, number];
+  labels?: readonly Label[];
+  onStage?: StageListener;
+  /**
+   * A result of an earlier gaze on the same prepared frame whose arrays this one may overwrite: a
+   * live preview or a sweep that moves on from one gaze to the next allocates nothing new.
+   */
+  reuse?: ProofResult;
+}
+
 /** The gaze-dependent step: the percept, maps and verdicts for a gaze (default: the prepared one). */
-export function lookAt(prepared: PreparedProof, options: { gazePx?: [number, number]; labels?: readonly Label[]; onStage?: StageListener } = {}): ProofResult {
+export function lookAt(prepared: PreparedProof, options: LookOptions = {}): ProofResult {
   const { setup, frame, model } = prepared;
   const onStage = options.onStage ?? (() => {});
   const ctx: Context = { ...prepared.ctx, gazePx: options.gazePx ?? prepared.ctx.gazePx };
-  const viewMap = options.gazePx ? computeViewMap(ctx.projection, ctx.gazePx) : computeViewMap(ctx.projection, ctx.gazePx);
+  const previous = options.reuse;
+  const viewMap = computeViewMap(ctx.projection, ctx.gazePx, previous?.viewMap);
   const numbers = numbersFrom(ctx, [frame.width, frame.height], prepared.adapting, model);
 
   onStage('retina: cutoffs');
-  const n = frame.width * frame.height;
-  const { eyes } = setup.viewer;
   const coneShare = model.light.mesopicFactorM;
-  const achromaticCpd = computeCutoffMap(viewMap, ctx.model, eyes, new Float32Array(n));
-  const cutoffs = {
-    achromaticLog2: new Float32Array(n), redGreenVariancePx2: new Float32Array(n), blueYellowVariancePx2: new Float32Array(n),
-    rodVariancePx2: coneShare < 1 ? new Float32Array(n) : undefined, offAxisVariancePx2: new Float32Array(n),
-  };
-  // On the same display the viewer of the picture sees each part with their own fovea, so colour is
-  // lost only as far as the simulated retina there falls short of a fovea (variances subtract); the
-  // S-cone-free centre, which the viewer of the picture has too, cancels.
-  const sameDisplay = setup.percept.mode === 'same-display';
-  const fovealRgCpd = chromaticCutoffCpd('red-green', 0, setup.models.colourLoss, Infinity);
-  const fovealByCpd = setup.models.colourLoss.blueYellowFovealCutoffCpd;
-  const cutoffCpd = new Float32Array(n);
-  const smallestLetterPx = new Float32Array(n);
-  const letterLimitIndex = new Uint8Array(n);
-  const blindCentre = blindSpotCentreDeg(eyes);
-  const seen = blindCentre ? new Float32Array(n) : undefined;
-  const colourLoss = setup.models.colourLoss;
-  const { limits } = model;
-  for (let i = 0; i < n; i++) {
-    const ecc = viewMap.eccentricityDeg[i];
-    const cone = achromaticCpd[i];
-    const cyclesPerCpd = viewMap.arcminPerPx[i] / 60;
-    cutoffs.achromaticLog2[i] = Math.log2(cone * cyclesPerCpd);
-    const variance = (cpd: number, fovealCpd: number): number => Math.max(0, gaussianVarianceForCutoff(cpd * cyclesPerCpd) - (sameDisplay ? gaussianVarianceForCutoff(fovealCpd * cyclesPerCpd) : 0));
-    cutoffs.redGreenVariancePx2[i] = variance(chromaticCutoffCpd('red-green', ecc, colourLoss, cone), fovealRgCpd);
-    cutoffs.blueYellowVariancePx2[i] = variance(chromaticCutoffCpd('blue-yellow', ecc, colourLoss, cone, !sameDisplay), fovealByCpd);
-    if (cutoffs.rodVariancePx2) cutoffs.rodVariancePx2[i] = gaussianVarianceForCutoff(rodCutoffCpd(ecc, cone) * cyclesPerCpd);
-    // The eye's off-axis optics, as a blur matched at half the local cutoff (never finer than the frame holds).
-    const matchCpd = Math.min(cone, 30 / viewMap.arcminPerPx[i]) / 2;
-    cutoffs.offAxisVariancePx2[i] = offAxisVarianceDeg2(ecc, matchCpd) / (cyclesPerCpd * cyclesPerCpd);
-    cutoffCpd[i] = mixedCutoffCpd(cone, ecc, coneShare);
-    const letter = letterSizeAt(cutoffCpd[i], limits, ecc, viewMap.arcminPerPx[i], coneShare < 0.5);
-    smallestLetterPx[i] = letter.px;
-    letterLimitIndex[i] = LETTER_LIMITS.indexOf(letter.limitedBy);
-    if (seen && blindCentre) {
-      // Soft edge over ±5 % of the ellipse so the fill blends in.
-      const d = blindSpotDistance(ecc, viewMap.meridianDeg[i], blindCentre);
-      seen[i] = Math.min(1, Math.max(0, (d - 0.95) / 0.1));
-      if (d < 1) {
-        smallestLetterPx[i] = Infinity;
-        letterLimitIndex[i] = LETTER_LIMITS.indexOf('blind spot');
-      }
-    }
-  }
+  const maps = computeGazeMaps({
+    viewMap, model: ctx.model, eyes: setup.viewer.eyes, colourLoss: setup.models.colourLoss,
+    sameDisplay: setup.percept.mode === 'same-display', coneShare, limits: model.limits,
+  }, previous?.maps);
+  const { cutoffCpd, smallestLetterPx, letterLimitIndex, seen } = maps;
   onStage('retina: percept');
-  const percept = renderPercept(prepared.retina, { cutoffs, coneShare, seen });
+  const percept = renderPercept(prepared.retina, { cutoffs: maps, coneShare, seen }, previous?.percept);
 
   let verdicts: LabelVerdict[] | undefined;
   const labels = options.labels;
   if (labels) {
     onStage('labels');
-    const fovealCutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(0, 0, eyes), 0, coneShare);
-    const maps = {
+    const fovealCutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(0, 0, setup.viewer.eyes), 0, coneShare);
+    const labelMaps = {
       ...viewMap, smallestLetterPx,
       limitAt: (i: number) => LETTER_LIMITS[letterLimitIndex[i]],
-      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, limits, 0, arcminPerPx, coneShare < 0.5),
+      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, model.limits, 0, arcminPerPx, coneShare < 0.5),
     };
-    verdicts = labels.map((label) => judgeLabel(label, maps));
+    verdicts = labels.map((label) => judgeLabel(label, labelMaps));
   }
   return {
-    numbers, viewMap, retinalImage: prepared.retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, labels: verdicts,
+    numbers, viewMap, retinalImage: prepared.retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, maps, labels: verdicts,
     optics: model.optics, veil: prepared.veil, ...(prepared.depth ? { depth: prepared.depth } : {}), models: { acuity: ctx.model },
   };
 }

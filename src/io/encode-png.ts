@@ -16,24 +16,42 @@ function codeThresholds(): Float32Array {
   return thresholds;
 }
 
+/** Bins of the linear range [0, 1] for the code look-up; every code spans more than one bin. */
+const BINS = 65536;
+let binCodes: Uint8Array | undefined;
+
+/** The code at the lower edge of each bin: a pixel's code is that or a step or two above. */
+function codesByBin(t: Float32Array): Uint8Array {
+  if (binCodes) return binCodes;
+  binCodes = new Uint8Array(BINS + 1);
+  let code = 0;
+  for (let bin = 0; bin <= BINS; bin++) {
+    const v = bin / BINS;
+    while (code < 255 && t[code] <= v) code++;
+    binCodes[bin] = code;
+  }
+  return binCodes;
+}
+
 /** Linear RGB to interleaved 8-bit sRGB RGBA (opaque), clamped to the display's range, rounded exactly. */
 export function linearToRgba8(image: LinearRgb): Uint8ClampedArray {
   const t = codeThresholds();
+  const codes = codesByBin(t);
   const n = image.width * image.height;
   const out = new Uint8ClampedArray(n * 4);
   for (let c = 0; c < 3; c++) {
     const plane = image.planes[c];
     for (let i = 0; i < n; i++) {
       const v = plane[i];
-      // Binary search for the number of thresholds at or below v: the code.
-      let lo = 0;
-      let hi = 255;
-      while (lo < hi) {
-        const mid = (lo + hi) >> 1;
-        if (t[mid] <= v) lo = mid + 1;
-        else hi = mid;
+      let code: number;
+      if (!(v > 0)) code = 0;
+      else if (v >= 1) code = 255;
+      else {
+        // The number of thresholds at or below v: start from the bin's code and step up.
+        code = codes[Math.floor(v * BINS)];
+        while (code < 255 && t[code] <= v) code++;
       }
-      out[i * 4 + c] = lo;
+      out[i * 4 + c] = code;
     }
   }
   for (let i = 0; i < n; i++) out[i * 4 + 3] = 255;

@@ -48,19 +48,26 @@ export function glareKernel(pixelDeg: number, radiusPx: number, ageYears: number
   const kernel = new Float32Array(size * size);
   const sub = 4;
   const pixelSr = (pixelDeg / DEG_PER_RAD) ** 2;
+  // The PSF is smooth beyond the cut-off circle: pixels clear of it (by a pixel) and of the centre take
+  // their centre's value; the others are averaged over 4 × 4 sub-samples. The kernel has the square's
+  // eight-fold symmetry, so one octant is computed.
+  const valueAt = (x: number, y: number): number => {
+    const r = Math.sqrt(x * x + y * y) * pixelDeg;
+    if (r - 0.75 * pixelDeg >= fromDeg && r > 3 * pixelDeg) return cieGlarePsfPerSr(r, ageYears, pigmentation);
+    let acc = 0;
+    for (let sy = 0; sy < sub; sy++) for (let sx = 0; sx < sub; sx++) {
+      const theta = Math.hypot((x + (sx + 0.5) / sub - 0.5) * pixelDeg, (y + (sy + 0.5) / sub - 0.5) * pixelDeg);
+      if (theta >= fromDeg) acc += cieGlarePsfPerSr(theta, ageYears, pigmentation);
+    }
+    return acc / (sub * sub);
+  };
   let total = 0;
-  for (let y = 0; y < size; y++) {
-    for (let x = 0; x < size; x++) {
-      let acc = 0;
-      for (let sy = 0; sy < sub; sy++) for (let sx = 0; sx < sub; sx++) {
-        const dx = (x - radiusPx + (sx + 0.5) / sub - 0.5) * pixelDeg;
-        const dy = (y - radiusPx + (sy + 0.5) / sub - 0.5) * pixelDeg;
-        const theta = Math.hypot(dx, dy);
-        if (theta >= fromDeg) acc += cieGlarePsfPerSr(theta, ageYears, pigmentation);
-      }
-      const v = (acc / (sub * sub)) * pixelSr;
-      kernel[y * size + x] = v;
-      total += v;
+  for (let y = 0; y <= radiusPx; y++) {
+    for (let x = y; x <= radiusPx; x++) {
+      const v = Math.fround(valueAt(x, y) * pixelSr);
+      const points = new Set([[x, y], [y, x], [-x, y], [-y, x], [x, -y], [y, -x], [-x, -y], [-y, -x]].map(([a, b]) => (b + radiusPx) * size + a + radiusPx));
+      for (const i of points) kernel[i] = v;
+      total += v * points.size;
     }
   }
   return { kernel, size, scatteredFraction: total };

@@ -41,51 +41,72 @@ export function buildRangePyramids(plane: Float32Array, width: number, height: n
     rawMin.push(lo);
     rawMax.push(hi);
   }
-  const dilate = (src: Float32Array, w: number, h: number, pick: (a: number, b: number) => number): Float32Array => {
-    const rows = new Float32Array(w * h);
-    const out = new Float32Array(w * h);
-    for (let y = 0; y < h; y++) {
-      for (let x = 0; x < w; x++) {
-        let v = src[y * w + x];
-        if (x > 0) v = pick(v, src[y * w + x - 1]);
-        if (x < w - 1) v = pick(v, src[y * w + x + 1]);
-        rows[y * w + x] = v;
-      }
-    }
-    for (let y = 0; y < h; y++) {
-      for (let x = 0; x < w; x++) {
-        let v = rows[y * w + x];
-        if (y > 0) v = pick(v, rows[(y - 1) * w + x]);
-        if (y < h - 1) v = pick(v, rows[(y + 1) * w + x]);
-        out[y * w + x] = v;
-      }
-    }
-    return out;
-  };
   return {
     sizes,
-    min: rawMin.map((p, k) => dilate(p, sizes[k][0], sizes[k][1], Math.min)),
-    max: rawMax.map((p, k) => dilate(p, sizes[k][0], sizes[k][1], Math.max)),
+    min: rawMin.map((p, k) => dilate3x3(p, sizes[k][0], sizes[k][1], false)),
+    max: rawMax.map((p, k) => dilate3x3(p, sizes[k][0], sizes[k][1], true)),
   };
 }
 
+/** The minimum (or maximum) over each sample's 3 × 3 neighbourhood (edges: what exists). */
+function dilate3x3(src: Float32Array, w: number, h: number, max: boolean): Float32Array {
+  const rows = new Float32Array(w * h);
+  const out = new Float32Array(w * h);
+  for (let y = 0; y < h; y++) {
+    const o = y * w;
+    for (let x = 0; x < w; x++) {
+      let v = src[o + x];
+      if (x > 0) { const u = src[o + x - 1]; if (max ? u > v : u < v) v = u; }
+      if (x < w - 1) { const u = src[o + x + 1]; if (max ? u > v : u < v) v = u; }
+      rows[o + x] = v;
+    }
+  }
+  for (let y = 0; y < h; y++) {
+    const o = y * w;
+    const up = y > 0 ? o - w : o;
+    const down = y < h - 1 ? o + w : o;
+    for (let x = 0; x < w; x++) {
+      let v = rows[o + x];
+      const a = rows[up + x];
+      const b = rows[down + x];
+      if (max) { if (a > v) v = a; if (b > v) v = b; } else { if (a < v) v = a; if (b < v) v = b; }
+      out[o + x] = v;
+    }
+  }
+  return out;
+}
+
 /**
- * Clamps `out` (full size) to the input's range around each pixel; `log2Cutoff` is the local cutoff
- * in cycles per pixel (log2): blocks of at least half its period are used.
+ * Clamps `outs` (full size; one per range pyramid) to their inputs' range around each pixel;
+ * `log2Cutoff` is the local cutoff in cycles per full-size pixel (log2): blocks of at least half its
+ * period are used. `rangeLevel`: the ranges were built on the input reduced that many times (their
+ * level 0 holds 2^rangeLevel-px blocks), `fullWidth` the width of the outputs.
  */
-export function clampToLocalRange(out: Float32Array, ranges: RangePyramids, log2Cutoff: Float32Array): void {
-  const [width, height] = ranges.sizes[0];
-  const top = ranges.sizes.length - 1;
+export function clampToLocalRanges(outs: readonly Float32Array[], ranges: readonly RangePyramids[], log2Cutoff: Float32Array, rangeLevel = 0, fullWidth = ranges[0].sizes[0][0]): void {
+  const width = fullWidth;
+  const height = outs[0].length / width;
+  const top = ranges[0].sizes.length - 1;
+  const widths = ranges[0].sizes.map(([w]) => w);
+  const count = outs.length;
   for (let y = 0; y < height; y++) {
     for (let x = 0; x < width; x++) {
       const i = y * width + x;
       // Half a period at the cutoff, 0.5/f_c px, in blocks of 2^k: k = ceil(log2(0.5/f_c)).
-      const k = Math.min(top, Math.max(0, Math.ceil(-1 - log2Cutoff[i])));
-      const j = (y >> k) * ranges.sizes[k][0] + (x >> k);
-      const lo = ranges.min[k][j];
-      const hi = ranges.max[k][j];
-      const v = out[i];
-      out[i] = v < lo ? lo : v > hi ? hi : v;
+      let k = Math.ceil(-1 - log2Cutoff[i]) - rangeLevel;
+      k = k < 0 ? 0 : k > top ? top : k;
+      const shift = k + rangeLevel;
+      const j = (y >> shift) * widths[k] + (x >> shift);
+      for (let p = 0; p < count; p++) {
+        const lo = ranges[p].min[k][j];
+        const hi = ranges[p].max[k][j];
+        const v = outs[p][i];
+        outs[p][i] = v < lo ? lo : v > hi ? hi : v;
+      }
     }
   }
+}
+
+/** One output, one range pyramid: see clampToLocalRanges. */
+export function clampToLocalRange(out: Float32Array, ranges: RangePyramids, log2Cutoff: Float32Array, rangeLevel = 0, fullWidth = ranges.sizes[0][0]): void {
+  clampToLocalRanges([out], [ranges], log2Cutoff, rangeLevel, fullWidth);
 }
