@@ -17,14 +17,21 @@ type Json = Record<string, unknown>;
 
 const isObject = (v: unknown): v is Json => typeof v === 'object' && v !== null && !Array.isArray(v);
 
-/** Deep merge of plain objects; arrays and values in `over` replace those in `base`. */
+/**
+ * Deep merge of plain objects; arrays and values in `over` replace those in `base`. Keys are defined
+ * as own properties (a key named "__proto__" stays a key, for validation to refuse).
+ */
 export function mergeSetupJson(base: Json, over: Json): Json {
   const out: Json = { ...base };
   for (const [key, value] of Object.entries(over)) {
-    out[key] = isObject(value) && isObject(base[key]) ? mergeSetupJson(base[key] as Json, value) : value;
+    const baseValue = Object.hasOwn(base, key) ? base[key] : undefined;
+    Object.defineProperty(out, key, { value: isObject(value) && isObject(baseValue) ? mergeSetupJson(baseValue, value) : value, enumerable: true, writable: true, configurable: true });
   }
   return out;
 }
+
+/** A field of a JSON object, own properties only (never one inherited from Object.prototype). */
+const own = (value: Json, key: string): unknown => (Object.hasOwn(value, key) ? value[key] : undefined);
 
 function suggestion(key: string, allowed: readonly string[]): string | undefined {
   if (allowed.length === 0) return undefined;
@@ -73,12 +80,12 @@ function checkObject(value: Json, decl: ObjectDecl, path: string, problems: Conf
   const out: Json = {};
   const allowed = Object.keys(decl.fields);
   for (const key of Object.keys(value)) {
-    if (key in decl.fields || alsoAllowed.includes(key)) continue;
-    const hint = elsewhere && key in elsewhere.decl.fields ? `this key is only for ${elsewhere.where}` : suggestion(key, allowed);
-    problems.push({ path: `${path}.${key}`, received: value[key], expected: 'no such key', hint });
+    if (Object.hasOwn(decl.fields, key) || alsoAllowed.includes(key)) continue;
+    const hint = elsewhere && Object.hasOwn(elsewhere.decl.fields, key) ? `this key is only for ${elsewhere.where}` : suggestion(key, allowed);
+    problems.push({ path: `${path}.${key}`, received: own(value, key), expected: 'no such key', hint });
   }
   for (const [key, fieldDecl] of Object.entries(decl.fields)) {
-    const checked = checkValue(value[key], fieldDecl, `${path}.${key}`, problems);
+    const checked = checkValue(own(value, key), fieldDecl, `${path}.${key}`, problems);
     if (checked !== undefined) out[key] = checked;
   }
   return out;
@@ -86,7 +93,12 @@ function checkObject(value: Json, decl: ObjectDecl, path: string, problems: Conf
 
 function applyPreset(section: Json | undefined, list: readonly Preset[], fallback: string | undefined, path: string, problems: ConfigProblem[]): { merged: Json; name?: string } {
   const given = section ?? {};
-  const requested = given.preset ?? (Object.keys(given).length === 0 ? fallback : undefined);
+  const hasPreset = Object.hasOwn(given, 'preset');
+  if (hasPreset && typeof given.preset !== 'string') {
+    problems.push({ path: `${path}.preset`, received: given.preset, expected: `a preset name: one of ${list.map((p) => `"${p.name}"`).join(', ')}` });
+    return { merged: given };
+  }
+  const requested = hasPreset ? given.preset : Object.keys(given).length === 0 ? fallback : undefined;
   if (requested === undefined) return { merged: given };
   const preset = typeof requested === 'string' ? findPreset(list, requested) : undefined;
   if (!preset) {
@@ -102,9 +114,14 @@ function applyPreset(section: Json | undefined, list: readonly Preset[], fallbac
 }
 
 function checkDisplay(raw: Json, problems: ConfigProblem[]): Display | undefined {
-  const kind = raw.kind;
+  const kind = own(raw, 'kind');
   if (kind !== 'screen' && kind !== 'headset') {
     problems.push({ path: 'display.kind', received: kind, expected: 'one of "screen", "headset"' });
+    // Keys neither kind knows are named even so.
+    const known = [...new Set([...Object.keys(screenDecl.fields), ...Object.keys(headsetDecl.fields), 'kind', 'preset'])];
+    for (const key of Object.keys(raw)) {
+      if (!known.includes(key)) problems.push({ path: `display.${key}`, received: own(raw, key), expected: 'no such key', hint: suggestion(key, known) });
+    }
     return undefined;
   }
   const before = problems.length;

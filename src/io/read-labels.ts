@@ -1,17 +1,15 @@
 /** Reading a labels file: the text runs of a frame with their boxes and letter sizes. */
 import type { Label } from '../analysis/labels.js';
 import { InputError } from '../errors.js';
+import { describeJsonProblems, parseJson } from './parse-json.js';
 
 const FIX = 'A labels file is {"labels": [{"id", "text", "boxPx": [x, y, width, height], "letterHeightPx", "letterSpacingPx"?}]} in frame pixels; see sample-scenes/*.labels.json.';
 
 /** Parses and checks labels JSON against the frame size; every problem names the label and field. */
 export function parseLabels(text: string, file: string, frameWidthPx: number, frameHeightPx: number): Label[] {
-  let json: unknown;
-  try {
-    json = JSON.parse(text);
-  } catch (err) {
-    throw new InputError(file, `is not valid JSON (${(err as Error).message})`, FIX);
-  }
+  const parsed = parseJson(text);
+  if (parsed.problems.length) throw new InputError(file, `is not valid JSON:\n  - ${describeJsonProblems(parsed.problems).join('\n  - ')}`, FIX);
+  const json = parsed.value;
   const list = (json as { labels?: unknown })?.labels;
   if (!Array.isArray(list)) throw new InputError(file, 'has no "labels" array', FIX);
   const problems: string[] = [];
