@@ -4,7 +4,7 @@
  */
 import type { Setup } from './config/setup.js';
 import { InputError } from './errors.js';
-import { decodeFrame } from './io/decode-frame.js';
+import { checkFramePixels, DEFAULT_MAX_FRAME_PIXELS, probeImage, decodeFrame } from './io/decode-frame.js';
 import { encodeRgba8Png, linearToRgba8 } from './io/encode-png.js';
 import type { OutputFile } from './io/write-outputs.js';
 import { frameFitsDisplay, runProof, type ProofResult, type StageListener } from './pipeline.js';
@@ -53,14 +53,17 @@ export interface DepthInput {
   unit: DepthUnit;
 }
 
-export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}, labelsInput?: LabelsInput, depthInput?: DepthInput): Promise<ProofOutputs> {
+export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}, labelsInput?: LabelsInput, depthInput?: DepthInput, maxPixels = DEFAULT_MAX_FRAME_PIXELS): Promise<ProofOutputs> {
   onStage('decoding frame');
-  const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb);
-  if (!frameFitsDisplay(setup.display, image.width, image.height)) {
+  // The header first: size and aspect are checked before the pixels are decoded.
+  const probe = await probeImage(frameBytes, frameFile);
+  checkFramePixels(probe.width, probe.height, frameFile, maxPixels);
+  if (!frameFitsDisplay(setup.display, probe.width, probe.height)) {
     const [w, h] = setup.display.resolutionPx;
-    throw new InputError(frameFile, `is ${image.width}×${image.height} px but the display is ${w}×${h} px (aspect ratios differ by more than 1 %)`,
+    throw new InputError(frameFile, `is ${probe.width}×${probe.height} px but the display is ${w}×${h} px (aspect ratios differ by more than 1 %)`,
       `Export the frame at ${w}×${h} (or the same aspect ratio), or give display.resolutionPx the frame's size in the setup.`);
   }
+  const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb, maxPixels);
   const labels = labelsInput ? parseLabels(labelsInput.text, labelsInput.file, image.width, image.height) : undefined;
   const depthM = depthInput ? await decodeDepthMap(depthInput.bytes, depthInput.file, depthInput.unit, image.width, image.height) : undefined;
   const result = runProof(image, setup, setupSource, { onStage, labels, depthM });

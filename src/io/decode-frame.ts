@@ -18,8 +18,49 @@ export interface FrameInfo {
   iccProfile?: string;
 }
 
-/** Largest frame accepted, in pixels (about 16k × 16k); beyond this memory, not the model, is the limit. */
+/**
+ * Largest frame proofed by default, in pixels: 3840 × 2160. A proof needs about 350 bytes of memory
+ * per frame pixel at this size (README, performance), so about 3 GB; larger frames are refused before
+ * decoding unless a larger limit is given (`--max-pixels`).
+ */
+export const DEFAULT_MAX_FRAME_PIXELS = 3840 * 2160;
+/** Memory a proof needs per frame pixel, bytes (measured by the bench at 4K, rounded up). */
+export const BYTES_PER_FRAME_PIXEL = 350;
+/** Largest frame the decoder is ever asked to open, whatever the limit given (16k × 16k). */
 export const MAX_FRAME_PIXELS = 16384 * 16384;
+
+/** The decoder's complaint in plain words. */
+export function decoderTrouble(err: unknown): string {
+  const message = String((err as Error)?.message ?? err);
+  if (/unsupported image format/i.test(message)) return 'is not a PNG, JPEG or WebP image (or its first bytes are damaged)';
+  if (/corrupt header/i.test(message)) return 'has a damaged header';
+  if (/exceeds pixel limit/i.test(message)) return 'is larger than the decoder may open';
+  if (/premature end|truncated|unexpected end|read error|not enough data/i.test(message)) return 'ends early or has damaged image data';
+  if (/crc|checksum|bad adler|invalid (?:block|distance|code)|IDAT/i.test(message)) return 'has damaged image data (a checksum does not match)';
+  return `could not be decoded (the decoder said: ${message.split('\n')[0].slice(0, 120) || 'nothing more'})`;
+}
+
+/** The image's format and size from its header, without decoding the pixels. */
+export async function probeImage(bytes: Uint8Array, file: string): Promise<{ width: number; height: number; format: string; depth?: string }> {
+  let meta: Metadata;
+  try {
+    meta = await sharp(bytes, { limitInputPixels: false }).metadata();
+  } catch (err) {
+    throw new InputError(file, decoderTrouble(err), 'Give a PNG (8 or 16-bit), JPEG or WebP frame; re-export it if it was damaged.');
+  }
+  if (!meta.width || !meta.height || !['png', 'jpeg', 'webp'].includes(meta.format ?? '')) {
+    throw new InputError(file, `is a ${meta.format ?? 'unknown'} file`, 'Give a PNG (8 or 16-bit), JPEG or WebP frame; convert other formats first.');
+  }
+  return { width: meta.width, height: meta.height, format: meta.format!, depth: meta.depth };
+}
+
+/** Refuses a frame above the pixel limit, before any decoding, saying how to proceed. */
+export function checkFramePixels(width: number, height: number, file: string, maxPixels: number): void {
+  if (width * height <= maxPixels) return;
+  const gb = (pixels: number): string => ((pixels * BYTES_PER_FRAME_PIXEL) / 2 ** 30).toFixed(1);
+  throw new InputError(file, `is ${width}×${height} px (${(width * height / 1e6).toFixed(1)} million pixels), above the limit of ${(maxPixels / 1e6).toFixed(1)} million (a proof needs about ${gb(width * height)} GB at this size)`,
+    `Export the frame at the display's resolution, or allow it with --max-pixels ${width * height} if the machine has the memory.`);
+}
 
 let lut8: Float32Array | undefined;
 let lut16: Float32Array | undefined;
@@ -30,20 +71,19 @@ function decodeLut(levels: number): Float32Array {
   return lut;
 }
 
-export async function decodeFrame(bytes: Uint8Array, file: string, backgroundRgb: readonly [number, number, number]): Promise<{ image: LinearRgb; info: FrameInfo }> {
+export async function decodeFrame(bytes: Uint8Array, file: string, backgroundRgb: readonly [number, number, number], maxPixels = DEFAULT_MAX_FRAME_PIXELS): Promise<{ image: LinearRgb; info: FrameInfo }> {
+  const probe = await probeImage(bytes, file);
+  checkFramePixels(probe.width, probe.height, file, maxPixels);
   let meta: Metadata;
   try {
-    meta = await sharp(bytes, { limitInputPixels: MAX_FRAME_PIXELS }).metadata();
+    meta = await sharp(bytes, { limitInputPixels: Math.min(MAX_FRAME_PIXELS, maxPixels) }).metadata();
   } catch (err) {
-    throw new InputError(file, `is not an image eyeproof can read (${(err as Error).message})`, 'Give a PNG (8 or 16-bit), JPEG or WebP frame.');
-  }
-  if (!meta.width || !meta.height || !['png', 'jpeg', 'webp'].includes(meta.format ?? '')) {
-    throw new InputError(file, `is a ${meta.format ?? 'unknown'} file`, 'Give a PNG (8 or 16-bit), JPEG or WebP frame; convert other formats first.');
+    throw new InputError(file, decoderTrouble(err), 'Give a PNG (8 or 16-bit), JPEG or WebP frame; re-export it if it was damaged.');
   }
   const sixteen = meta.depth === 'ushort';
   let raw: { data: Buffer; info: OutputInfo };
   try {
-    let pipeline = sharp(bytes, { limitInputPixels: MAX_FRAME_PIXELS }).autoOrient();
+    let pipeline = sharp(bytes, { limitInputPixels: Math.min(MAX_FRAME_PIXELS, maxPixels), failOn: 'error' }).autoOrient();
     // 8-bit input with a profile is converted to sRGB by default; 16-bit needs the transform asked
     // for explicitly, or it would keep the profile's code values.
     if (sixteen && meta.icc) pipeline = pipeline.withIccProfile('srgb');
@@ -53,7 +93,7 @@ export async function decodeFrame(bytes: Uint8Array, file: string, backgroundRgb
       .raw(sixteen ? { depth: 'ushort' } : {})
       .toBuffer({ resolveWithObject: true });
   } catch (err) {
-    throw new InputError(file, `could not be decoded (${(err as Error).message})`, 'Check that the file is complete and not damaged; re-export it from the design tool.');
+    throw new InputError(file, decoderTrouble(err), 'Check that the file is complete and not damaged; re-export it from the design tool.');
   }
   const { width, height } = raw.info;
   const max = sixteen ? 65535 : 255;
