@@ -1,13 +1,13 @@
-#!/usr/bin/env node
 /** The eyeproof command: parses, calls the library, prints, and picks the exit code — nothing else. */
 import { existsSync } from 'node:fs';
-import { Command, CommanderError, Option } from 'commander';
+import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
 import { ConfigError, InputError, OutputError } from '../src/errors.js';
 import { displayPresets, viewerPresets } from '../src/config/presets.js';
 import { setupJsonSchema } from '../src/config/schema.js';
 import { mergeSetupJson, validateSetup } from '../src/config/validate.js';
 import type { Setup } from '../src/config/setup.js';
-import { readInputBytes, readSetupJson } from '../src/io/read-input.js';
+import { MAX_JSON_FILE_BYTES, readInputBytes, readSetupJson } from '../src/io/read-input.js';
+import { BYTES_PER_FRAME_PIXEL, DEFAULT_MAX_FRAME_PIXELS, MAX_FRAME_PIXELS } from '../src/io/decode-frame.js';
 import { prepareOutputFolder, writeOutputsAtomically } from '../src/io/write-outputs.js';
 import { computeNumbers } from '../src/pipeline.js';
 import { acuityModels } from '../src/retina/acuity-model.js';
@@ -29,6 +29,14 @@ interface SetupOptions {
 
 type Json = Record<string, unknown>;
 
+/** Where the command writes: the process's streams, or a test's collectors. */
+export interface CliIo {
+  out(text: string): void;
+  err(text: string): void;
+}
+
+const processIo: CliIo = { out: (t) => process.stdout.write(t), err: (t) => process.stderr.write(t) };
+
 /** Builds the setup from presets, files and flags; returns it with a name for messages. */
 async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source: string }> {
   let raw: Json = {};
@@ -47,7 +55,7 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
     if (viewerPresets.some((p) => p.name === opts.viewer)) over.viewer = { preset: opts.viewer };
     else if (existsSync(opts.viewer) || /\.json$/i.test(opts.viewer)) {
       const v = (await readSetupJson(opts.viewer)) as Json;
-      over.viewer = v && typeof v === 'object' && 'viewer' in v ? v.viewer : v;
+      over.viewer = v && typeof v === 'object' && Object.hasOwn(v, 'viewer') ? v.viewer : v;
     } else {
       throw new ConfigError('--viewer', [{ path: '--viewer', received: opts.viewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}` }]);
     }
@@ -66,7 +74,7 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
       if (viewerPresets.some((p) => p.name === opts.referenceViewer)) percept.referenceViewer = opts.referenceViewer;
       else if (existsSync(opts.referenceViewer) || /\.json$/i.test(opts.referenceViewer)) {
         const v = (await readSetupJson(opts.referenceViewer)) as Json;
-        percept.referenceViewer = v && typeof v === 'object' && 'viewer' in v ? v.viewer : v;
+        percept.referenceViewer = v && typeof v === 'object' && Object.hasOwn(v, 'viewer') ? v.viewer : v;
         sources.push(opts.referenceViewer);
       } else {
         throw new ConfigError('--reference-viewer', [{ path: '--reference-viewer', received: opts.referenceViewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}` }]);
@@ -83,11 +91,20 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
   return { setup, source };
 }
 
-function progress(quiet: boolean): (stage: string) => void {
+function progress(io: CliIo, quiet: boolean): (stage: string) => void {
   const start = performance.now();
   return (stage) => {
-    if (!quiet) process.stderr.write(`eyeproof: ${stage}… (${((performance.now() - start) / 1000).toFixed(1)} s)\n`);
+    if (!quiet) io.err(`eyeproof: ${stage}… (${((performance.now() - start) / 1000).toFixed(1)} s)\n`);
   };
+}
+
+/** --max-pixels: a whole number of pixels up to what the decoder may open. */
+function pixelCount(text: string): number {
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < 1 || value > MAX_FRAME_PIXELS) {
+    throw new InvalidArgumentError(`expected a whole number of pixels from 1 to ${MAX_FRAME_PIXELS}`);
+  }
+  return value;
 }
 
 function addSetupOptions(cmd: Command): Command {
@@ -100,45 +117,48 @@ function addSetupOptions(cmd: Command): Command {
     .option('--reference-viewer <preset|file>', 'who looks at a same-display percept (default: age-25)');
 }
 
-export function buildProgram(): Command {
+export function buildProgram(io: CliIo = processIo): Command {
   const program = new Command('eyeproof')
     .description('Shows what a viewer\'s retina receives and resolves when looking at a rendered interface frame.\n' + CAUTION_SHORT)
     .version('0.1.0')
     .showHelpAfterError()
+    .configureOutput({ writeOut: (t) => io.out(t), writeErr: (t) => io.err(t) })
     .exitOverride();
 
   addSetupOptions(program.command('proof <frame>'))
     .description('simulate one viewer looking at a frame; writes percept.png, detail-map.png, compare.png and report.json')
-    .option('-o, --out <folder>', 'output folder (created if missing)', 'eyeproof-out')
+    .option('-o, --out <folder>', 'output folder: created if missing, replaced as a whole, so it may hold only eyeproof outputs', 'eyeproof-out')
     .option('-q, --quiet', 'no progress on stderr')
     .option('--json', 'print report.json on stdout and nothing else')
     .option('-l, --labels <file>', 'labels file with the text runs to judge (default: <frame>.labels.json beside the frame, if there is one)')
     .option('-d, --depth <file>', 'depth map: a 16-bit greyscale PNG of distances from the eye, same size as the frame (0 = none)')
     .addOption(new Option('--depth-unit <unit>', 'unit of the depth map values').choices(['mm', 'cm', 'm']).default('mm'))
+    .addOption(new Option('--max-pixels <count>', `largest frame to proof, in pixels (default ${DEFAULT_MAX_FRAME_PIXELS}, 3840×2160: a proof needs about ${BYTES_PER_FRAME_PIXEL} bytes of memory per pixel)`).argParser(pixelCount))
     .addHelpText('after', `
 Examples:
   $ eyeproof proof sample-scenes/ferry-console.png
   $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
   $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold
   $ eyeproof proof passthrough.png --setup headset-wide --depth passthrough-depth.png --depth-unit mm`)
-    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit }) => {
+    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number }) => {
       const { setup, source } = await resolveSetup(opts);
       const bytes = await readInputBytes(frame, 'the frame');
       const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
       const labelsFile = opts.labels ?? (existsSync(besideFrame) ? besideFrame : undefined);
-      const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file')) } : undefined;
+      const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file', MAX_JSON_FILE_BYTES)) } : undefined;
       const depth = opts.depth ? { file: opts.depth, bytes: await readInputBytes(opts.depth, 'the depth map'), unit: opts.depthUnit } : undefined;
-      await prepareOutputFolder(opts.out, [frame, opts.setup ?? '', opts.viewer ?? '', labelsFile ?? '', opts.depth ?? ''].filter(Boolean), PROOF_OUTPUT_NAMES);
+      const inputs = [frame, opts.setup, opts.viewer, opts.referenceViewer, labelsFile, opts.depth].filter((f): f is string => Boolean(f) && existsSync(f as string));
+      await prepareOutputFolder(opts.out, inputs, PROOF_OUTPUT_NAMES);
       const quiet = Boolean(opts.quiet || opts.json);
-      const { files, report, result } = await proofFrame(bytes, frame, setup, source, progress(quiet), labels, depth);
+      const { files, report, result } = await proofFrame(bytes, frame, setup, source, progress(io, quiet), labels, depth, opts.maxPixels);
       const written = await writeOutputsAtomically(opts.out, files);
-      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
+      if (opts.json) io.out(`${JSON.stringify(report, null, 2)}\n`);
       if (quiet) return;
       if (result.labels) {
         const line = (c: ReturnType<typeof labelSummary>): string => `${c.readable} readable, ${c.legible} legible only, ${c['not legible']} not legible`;
-        process.stderr.write(`eyeproof: ${result.labels.length} labels from ${labelsFile}\n  from the gaze: ${line(labelSummary(result.labels, 'fromGaze'))}\n  when looked at: ${line(labelSummary(result.labels, 'whenFixated'))}\n`);
+        io.err(`eyeproof: ${result.labels.length} labels from ${labelsFile}\n  from the gaze: ${line(labelSummary(result.labels, 'fromGaze'))}\n  when looked at: ${line(labelSummary(result.labels, 'whenFixated'))}\n`);
       }
-      process.stderr.write(`eyeproof: wrote ${written.join(', ')}\n`);
+      io.err(`eyeproof: wrote ${written.join(', ')}\n`);
     });
 
   addSetupOptions(program.command('numbers'))
@@ -152,8 +172,8 @@ Examples:
       const { setup } = await resolveSetup(opts);
       const numbers = computeNumbers(setup);
       const report = numbersReport(setup, numbers, acuityModels[setup.models.acuity]);
-      if (opts.json) process.stdout.write(`${JSON.stringify(report, null, 2)}\n`);
-      else process.stdout.write(formatNumbersTable(setup, numbers));
+      if (opts.json) io.out(`${JSON.stringify(report, null, 2)}\n`);
+      else io.out(formatNumbersTable(setup, numbers));
     });
 
   program.command('presets')
@@ -162,43 +182,47 @@ Examples:
     .addHelpText('after', '\nExample:\n  $ eyeproof presets')
     .action((opts: { json?: boolean }) => {
       if (opts.json) {
-        process.stdout.write(`${JSON.stringify({ displays: displayPresets, viewers: viewerPresets }, null, 2)}\n`);
+        io.out(`${JSON.stringify({ displays: displayPresets, viewers: viewerPresets }, null, 2)}\n`);
         return;
       }
       const width = Math.max(...[...displayPresets, ...viewerPresets].map((p) => p.name.length));
       const lines = ['Displays (--setup):', ...displayPresets.map((p) => `  ${p.name.padEnd(width)}  ${p.summary}`), '', 'Viewers (--viewer):', ...viewerPresets.map((p) => `  ${p.name.padEnd(width)}  ${p.summary}`), ''];
-      process.stdout.write(lines.join('\n'));
+      io.out(lines.join('\n'));
     });
 
   program.command('schema')
     .description('print the JSON Schema of setup files (for editor completion)')
     .addHelpText('after', '\nExample:\n  $ eyeproof schema > setup.schema.json')
     .action(() => {
-      process.stdout.write(`${JSON.stringify(setupJsonSchema(), null, 2)}\n`);
+      io.out(`${JSON.stringify(setupJsonSchema(), null, 2)}\n`);
     });
   return program;
 }
 
-function report(err: unknown): number {
+function report(io: CliIo, err: unknown): number {
   if (err instanceof CommanderError) return err.exitCode === 0 ? EXIT.ok : EXIT.usage;
   if (err instanceof ConfigError) {
-    process.stderr.write(`eyeproof: the setup is not valid.\n${err.message}\nFix these fields (see \`eyeproof schema\` and the README's setup reference) and run again. Nothing was written.\n`);
+    io.err(`eyeproof: the setup is not valid.\n${err.message}\nFix these fields (see \`eyeproof schema\` and the README's setup reference) and run again. Nothing was written.\n`);
     return EXIT.setup;
   }
   if (err instanceof InputError) {
-    process.stderr.write(`eyeproof: cannot use the input: ${err.message}.\n${err.fix} Nothing was written.\n`);
+    io.err(`eyeproof: cannot use the input: ${err.message}.\n${err.fix} Nothing was written.\n`);
     return EXIT.input;
   }
   if (err instanceof OutputError) {
-    process.stderr.write(`eyeproof: cannot write the output: ${err.message}.\n${err.fix} Nothing was written.\n`);
+    io.err(`eyeproof: cannot write the output: ${err.message}.\n${err.fix}\n`);
     return EXIT.output;
   }
-  process.stderr.write(`eyeproof: internal error — please report it with the command you ran.\n${(err as Error).stack ?? String(err)}\n`);
+  io.err(`eyeproof: internal error — please report it with the command you ran.\n${(err as Error).stack ?? String(err)}\n`);
   return EXIT.internal;
 }
 
-try {
-  await buildProgram().parseAsync(process.argv);
-} catch (err) {
-  process.exitCode = report(err);
+/** Runs the command for `argv` (without node and the script) and returns the exit code; never throws. */
+export async function runCli(argv: readonly string[], io: CliIo = processIo): Promise<number> {
+  try {
+    await buildProgram(io).parseAsync([...argv], { from: 'user' });
+    return EXIT.ok;
+  } catch (err) {
+    return report(io, err);
+  }
 }

@@ -103,12 +103,16 @@ describe('eyeproof command', () => {
     expect(() => readdirSync(out)).toThrow();
   });
 
-  test('a setup that is not JSON exits 3 with the line of the error', async () => {
+  test('a setup that is not JSON exits 3 with the line and column of the error; comments and trailing commas are allowed, as editors allow them', async () => {
     const setup = join(dir, 'broken.json');
-    writeFileSync(setup, '{\n  "display": {\n    "preset": "desktop-27in",\n  }\n}');
+    writeFileSync(setup, '{\n  "display": {\n    preset: "desktop-27in"\n  }\n}');
     const r = await run(['numbers', '--setup', setup]);
     expect(r.code).toBe(3);
-    expect(r.stderr).toMatch(/invalid JSON/);
+    expect(r.stderr).toMatch(/line 3, column 5/);
+    expect(r.stderr).toMatch(/a key in double quotes/);
+    const lenient = join(dir, 'lenient.json');
+    writeFileSync(lenient, '\ufeff{\n  // the office screen\n  "display": {\n    "preset": "desktop-27in",\n  },\n}');
+    expect((await run(['numbers', '--setup', lenient])).code).toBe(0);
   });
 
   test('a missing frame and a non-image frame exit 4', async () => {
@@ -131,18 +135,19 @@ describe('eyeproof command', () => {
   test('an output path that is a file exits 5; the input is never overwritten', async () => {
     const r = await run(['proof', frame, '--out', frame]);
     expect(r.code).toBe(5);
-    // Writing into the frame's own folder is fine: outputs have their own names.
+    // The output folder is replaced as a whole, so a folder holding other files (the frame's own) is refused.
     const before = readFileSync(frame);
     const r2 = await run(['proof', frame, '--out', dir]);
-    expect(r2.code).toBe(0);
+    expect(r2.code).toBe(5);
+    expect(r2.stderr).toMatch(/holds files eyeproof did not write/);
     expect(readFileSync(frame).equals(before)).toBe(true);
-    // A frame named like an output is never overwritten.
+    // A frame named like an output, inside the output folder, is never overwritten.
     const named = join(dir, 'clash');
     mkdirSync(named);
     copyFileSync(frame, join(named, 'percept.png'));
     const r3 = await run(['proof', join(named, 'percept.png'), '--out', named]);
     expect(r3.code).toBe(5);
-    expect(r3.stderr).toMatch(/overwrite an input/);
+    expect(r3.stderr).toMatch(/input/);
     expect(readFileSync(join(named, 'percept.png')).equals(before)).toBe(true);
   });
 
