@@ -45,6 +45,20 @@ export interface VeilResult {
   coreScale: number;
   /** Veil added at the frame's centre pixel, in frame units (1 = display white above black). */
   veilAtCentre: number;
+  /**
+   * The viewer's own stray light (all of it, also in the same-display mode), as luminance relative to
+   * the display's white, on the reduced grid: `values[y·width + x]` covers frame pixels from
+   * (x·scaleX, y·scaleY). Used for the contrast that reaches the retina at each label.
+   */
+  viewerVeil: { width: number; height: number; scaleX: number; scaleY: number; values: Float32Array };
+}
+
+/** The viewer's veil (relative to display white) at a frame pixel. */
+export function viewerVeilAt(veil: VeilResult, xPx: number, yPx: number): number {
+  const v = veil.viewerVeil;
+  const x = Math.min(v.width - 1, Math.max(0, Math.floor(xPx / v.scaleX)));
+  const y = Math.min(v.height - 1, Math.max(0, Math.floor(yPx / v.scaleY)));
+  return v.values[y * v.width + x];
 }
 
 /** Adds the veil to `image` in place. */
@@ -122,6 +136,36 @@ export function addVeil(image: LinearRgb, input: VeilInput): VeilResult {
     }
   }
 
+  // The viewer's own veil of luminance, relative to white: the applied veil without a reference eye,
+  // one more transform with the viewer's own kernel with one.
+  const viewerValues = new Float32Array(lw * lh);
+  const peak = input.peakLuminanceCdM2;
+  if (!input.reference) {
+    for (let i = 0; i < lw * lh; i++) viewerValues[i] = (0.2126 * veils[0][i] + 0.7152 * veils[1][i] + 0.0722 * veils[2][i] + surround * ownTotal) / peak;
+  } else {
+    const ko = new Float64Array(2 * fw * fh);
+    for (let y = 0; y < size; y++) {
+      const yy = (y - radiusPx + fh) % fh;
+      for (let x = 0; x < size; x++) ko[2 * (yy * fw + ((x - radiusPx + fw) % fw))] = own.kernel[y * size + x];
+    }
+    fft2dForward(plan, ko);
+    const data = new Float64Array(2 * fw * fh);
+    for (let y = 0; y < lh; y++) for (let x = 0; x < lw; x++) {
+      const i = y * lw + x;
+      data[2 * (y * fw + x)] = (0.2126 * low[0][i] + 0.7152 * low[1][i] + 0.0722 * low[2][i]) * range + black - surround;
+    }
+    fft2dForward(plan, data);
+    for (let i = 0; i < fw * fh; i++) {
+      const [a, b, kr, ki] = [data[2 * i], data[2 * i + 1], ko[2 * i], ko[2 * i + 1]];
+      data[2 * i] = a * kr - b * ki;
+      data[2 * i + 1] = -(a * ki + b * kr);
+    }
+    fft2dForward(plan, data);
+    const n = fw * fh;
+    for (let y = 0; y < lh; y++) for (let x = 0; x < lw; x++) viewerValues[y * lw + x] = (data[2 * (y * fw + x)] / n + surround * ownTotal) / peak;
+  }
+  const viewerVeil = { width: lw, height: lh, scaleX: width / lw, scaleY: height / lh, values: viewerValues };
+
   // Back to full size, in frame units: v_out = core·v + (veil + surround·s − (1 − core)·black… ) / range.
   const offset = surround * surroundShare - (1 - coreScale) * black;
   let veilAtCentre = 0;
@@ -135,5 +179,5 @@ export function addVeil(image: LinearRgb, input: VeilInput): VeilResult {
     for (let i = 0; i < plane.length; i++) plane[i] = coreScale * plane[i] + (cur[i] + offset) / range;
     if (c === 1) veilAtCentre = (cur[Math.floor(height / 2) * width + Math.floor(width / 2)] + surround * surroundShare) / range;
   });
-  return { scatteredFraction: ownTotal, coreScale, veilAtCentre };
+  return { scatteredFraction: ownTotal, coreScale, veilAtCentre, viewerVeil };
 }
