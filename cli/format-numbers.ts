@@ -2,6 +2,7 @@
 import type { Setup } from '../src/config/setup.js';
 import type { DerivedNumbers } from '../src/pipeline.js';
 import { CAUTION_SHORT } from '../src/report/cautions.js';
+import { FRAME_MIN_LETTER_PX } from '../src/analysis/letter-size.js';
 
 const f = (v: number, digits = 2): string => v.toFixed(digits);
 
@@ -37,6 +38,13 @@ export function formatNumbersTable(setup: Setup, n: DerivedNumbers): string {
   for (const r of n.acuity) {
     lines.push(`  ${String(r.eccentricityDeg).padStart(5)}  ${r.meridian.padEnd(11)}  ${f(r.cutoffCpd, 1).padStart(10)}  ${f(r.smallestLetterArcmin, 1).padStart(8)}  ${f(r.smallestLetterPx, 1).padStart(9)}  ${f(r.readingLetterPx, 1).padStart(10)}  ${r.limitedBy}`);
   }
-  lines.push('', `letter = smallest legible capital height; reading = 2× that for fluent reading.`, CAUTION_SHORT, '');
+  lines.push('', `letter = smallest legible capital height; reading = 2× that for fluent reading.`);
+  if (n.acuity.some((r) => r.limitedBy === 'display pixels')) {
+    lines.push(`letter px is never below ${FRAME_MIN_LETTER_PX} px: where the limit is "display pixels" the eye could read the smaller letter in arcmin, but the frame cannot draw it.`);
+  }
+  if (n.light.adaptingLuminanceFrom === 'assumed 18 % grey frame') {
+    lines.push('Without a frame the light is that of an 18 % grey frame; `eyeproof proof` measures the frame around the gaze, so its pupil, optics and letter sizes can differ from these.');
+  }
+  lines.push(CAUTION_SHORT, '');
   return lines.join('\n');
 }

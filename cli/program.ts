@@ -8,12 +8,16 @@ import { mergeSetupJson, validateSetup } from '../src/config/validate.js';
 import type { Setup } from '../src/config/setup.js';
 import { MAX_JSON_FILE_BYTES, readInputBytes, readSetupJson } from '../src/io/read-input.js';
 import { BYTES_PER_FRAME_PIXEL, DEFAULT_MAX_FRAME_PIXELS, MAX_FRAME_PIXELS } from '../src/io/decode-frame.js';
-import { prepareOutputFolder, writeOutputsAtomically } from '../src/io/write-outputs.js';
-import { computeNumbers } from '../src/pipeline.js';
+import { prepareOutputFolder, writeNewFile, writeOutputsAtomically } from '../src/io/write-outputs.js';
+import { basename } from 'node:path';
+import { computeNumbers, sizeSpec } from '../src/pipeline.js';
+import { formatSizes, type SizesFormat } from './format-sizes.js';
 import { acuityModels } from '../src/retina/acuity-model.js';
-import { proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
+import { detectLabelsInFrame, proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
 import type { DepthUnit } from '../src/io/decode-depth.js';
-import { labelSummary, numbersReport } from '../src/report/build-report.js';
+import { numbersReport } from '../src/report/build-report.js';
+import { GAZE_FORMS, isPlainPixels } from '../src/geometry/gaze-spec.js';
+import { formatLabelSummary } from './format-labels.js';
 import { CAUTION_SHORT } from '../src/report/cautions.js';
 import { EXIT } from './exit-codes.js';
 import { formatNumbersTable } from './format-numbers.js';
@@ -61,10 +65,9 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
     }
     sources.push(opts.viewer);
   }
-  if (opts.gaze !== undefined) {
-    const m = /^\s*(-?\d+(?:\.\d+)?)\s*,\s*(-?\d+(?:\.\d+)?)\s*$/.exec(opts.gaze);
-    if (!m) throw new ConfigError('--gaze', [{ path: '--gaze', received: opts.gaze, expected: 'x,y in frame pixels, e.g. 1280,720' }]);
-    over.gaze = { xPx: Number(m[1]), yPx: Number(m[2]) };
+  if (opts.gaze !== undefined && isPlainPixels(opts.gaze)) {
+    const [x, y] = opts.gaze.split(',').map(Number);
+    over.gaze = { xPx: x, yPx: y };
   }
   if (opts.acuityModel) over.models = { acuity: opts.acuityModel };
   if (opts.perceptMode || opts.referenceViewer) {
@@ -83,6 +86,7 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
     over.percept = percept;
   }
   const merged = mergeSetupJson(raw, over);
+  // A gaze given by flag keeps the file's focus distance (gaze.focusDistanceM).
   // A viewer given by flag replaces the file's viewer rather than merging into it.
   if (over.viewer) merged.viewer = over.viewer;
   const source = sources.length ? sources.join(' + ') : 'built-in defaults';
@@ -98,6 +102,13 @@ function progress(io: CliIo, quiet: boolean): (stage: string) => void {
   };
 }
 
+/** --audience: a share of the audience in percent, above 0 and at most 100. */
+function percentOf(text: string): number {
+  const value = Number(text.replace(/%$/, ''));
+  if (!Number.isFinite(value) || value <= 0 || value > 100) throw new InvalidArgumentError('expected a share of the audience in percent, above 0 and at most 100 (e.g. 90)');
+  return value;
+}
+
 /** --max-pixels: a whole number of pixels up to what the decoder may open. */
 function pixelCount(text: string): number {
   const value = Number(text);
@@ -111,7 +122,7 @@ function addSetupOptions(cmd: Command): Command {
   return cmd
     .option('-s, --setup <preset|file>', 'display preset name or setup JSON file (default: desktop-27in)')
     .option('-v, --viewer <preset|file>', 'viewer preset name or viewer JSON file (default: age-25)')
-    .option('-g, --gaze <x,y>', 'where the viewer looks, frame pixels (default: the centre)')
+    .option('-g, --gaze <where>', `where the viewer looks (default: the frame centre): ${GAZE_FORMS}`)
     .addOption(new Option('--acuity-model <name>', 'acuity model').choices(['rgc-sampling', 'contrast-threshold']))
     .addOption(new Option('--percept-mode <mode>', 'what percept.png shows: same-display (default for screens) or retinal-image (default for headsets)').choices(['same-display', 'retinal-image']))
     .option('--reference-viewer <preset|file>', 'who looks at a same-display percept (default: age-25)');
@@ -126,13 +137,14 @@ export function buildProgram(io: CliIo = processIo): Command {
     .exitOverride();
 
   addSetupOptions(program.command('proof <frame>'))
-    .description('simulate one viewer looking at a frame; writes percept.png, detail-map.png, compare.png and report.json')
+    .description('simulate one viewer looking at a frame and judge its text labels; writes percept.png (what the viewer resolves), detail-map.png (smallest legible letter everywhere, with label verdicts), compare.png (frame and percept side by side), reach.png (where the gaze may rest for each glance label), audience.png (share of an audience reading each capital height), psf.png (the eye\'s point-spread functions) and report.json (every number, verdict and fix)')
     .option('-o, --out <folder>', 'output folder: created if missing, replaced as a whole, so it may hold only eyeproof outputs', 'eyeproof-out')
     .option('-q, --quiet', 'no progress on stderr')
     .option('--json', 'print report.json on stdout and nothing else')
     .option('-l, --labels <file>', 'labels file with the text runs to judge (default: <frame>.labels.json beside the frame, if there is one)')
     .option('-d, --depth <file>', 'depth map: a 16-bit greyscale PNG of distances from the eye, same size as the frame (0 = none)')
     .addOption(new Option('--depth-unit <unit>', 'unit of the depth map values').choices(['mm', 'cm', 'm']).default('mm'))
+    .option('--no-detect-labels', 'without a labels file, do not look for text runs in the frame (by default they are found and judged)')
     .addOption(new Option('--max-pixels <count>', `largest frame to proof, in pixels (default ${DEFAULT_MAX_FRAME_PIXELS}, 3840×2160: a proof needs about ${BYTES_PER_FRAME_PIXEL} bytes of memory per pixel)`).argParser(pixelCount))
     .addHelpText('after', `
 Examples:
@@ -140,7 +152,7 @@ Examples:
   $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
   $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold
   $ eyeproof proof passthrough.png --setup headset-wide --depth passthrough-depth.png --depth-unit mm`)
-    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number }) => {
+    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number; detectLabels: boolean }) => {
       const { setup, source } = await resolveSetup(opts);
       const bytes = await readInputBytes(frame, 'the frame');
       const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
@@ -150,15 +162,38 @@ Examples:
       const inputs = [frame, opts.setup, opts.viewer, opts.referenceViewer, labelsFile, opts.depth].filter((f): f is string => Boolean(f) && existsSync(f as string));
       await prepareOutputFolder(opts.out, inputs, PROOF_OUTPUT_NAMES);
       const quiet = Boolean(opts.quiet || opts.json);
-      const { files, report, result } = await proofFrame(bytes, frame, setup, source, progress(io, quiet), labels, depth, opts.maxPixels);
+      const notes: string[] = [];
+      const { files, report, result, fixations } = await proofFrame(bytes, frame, setup, source, {
+        onStage: progress(io, quiet), onNote: (n) => notes.push(n), ...(labels ? { labels } : {}), ...(depth ? { depth } : {}),
+        ...(opts.maxPixels ? { maxPixels: opts.maxPixels } : {}), ...(opts.gaze !== undefined && !isPlainPixels(opts.gaze) ? { gaze: opts.gaze } : {}),
+        detectLabels: opts.detectLabels,
+      });
+      // Notes are said even with --quiet (they change how the result reads), never on stdout.
+      if (!opts.json) for (const n of notes) io.err(`eyeproof: note: ${n}\n`);
       const written = await writeOutputsAtomically(opts.out, files);
       if (opts.json) io.out(`${JSON.stringify(report, null, 2)}\n`);
       if (quiet) return;
-      if (result.labels) {
-        const line = (c: ReturnType<typeof labelSummary>): string => `${c.readable} readable, ${c.legible} legible only, ${c['not legible']} not legible`;
-        io.err(`eyeproof: ${result.labels.length} labels from ${labelsFile}\n  from the gaze: ${line(labelSummary(result.labels, 'fromGaze'))}\n  when looked at: ${line(labelSummary(result.labels, 'whenFixated'))}\n`);
-      }
+      if (result.labels) io.err(formatLabelSummary(result.labels, labelsFile ?? 'the frame (found, not read back)', fixations));
+      else io.err(`eyeproof: no labels, so no verdicts: give a labels file with --labels, or put ${besideFrame} beside the frame.\n`);
       io.err(`eyeproof: wrote ${written.join(', ')}\n`);
+    });
+
+  program.command('labels <frame>')
+    .description('find the text runs in a frame and write them as a labels file to correct (boxes and capital heights; text is not read back)')
+    .option('-o, --out <file>', 'labels file to write (default: <frame>.labels.json beside the frame); never overwritten without --force')
+    .option('--force', 'replace the labels file if it exists')
+    .option('--max-pixels <count>', 'largest frame to read, in pixels', (t) => pixelCount(t))
+    .addHelpText('after', `
+Example:
+  $ eyeproof labels export/cluster.png            # writes export/cluster.labels.json
+  $ eyeproof proof export/cluster.png             # uses it once corrected`)
+    .action(async (frame: string, opts: { out?: string; force?: boolean; maxPixels?: number }) => {
+      const bytes = await readInputBytes(frame, 'the frame');
+      const out = opts.out ?? `${frame.replace(/\.(png|jpe?g|webp)$/i, '')}.labels.json`;
+      const { runs, width, height } = await detectLabelsInFrame(bytes, frame, opts.maxPixels);
+      const json = { frame: basename(frame), found: `eyeproof labels: ${runs.length} text runs, ${width}×${height} px; correct the boxes and capital heights, give each an id, its text and a role (glance, look, decorative)`, labels: runs.map((r) => ({ id: r.id, text: r.text, characters: r.characters, boxPx: r.boxPx, letterHeightPx: r.letterHeightPx, confidence: r.confidence })) };
+      writeNewFile(out, `${JSON.stringify(json, null, 2)}\n`, [frame], Boolean(opts.force));
+      io.err(`eyeproof: found ${runs.length} text runs; wrote ${out}\n`);
     });
 
   addSetupOptions(program.command('numbers'))
@@ -174,6 +209,19 @@ Examples:
       const report = numbersReport(setup, numbers, acuityModels[setup.models.acuity]);
       if (opts.json) io.out(`${JSON.stringify(report, null, 2)}\n`);
       else io.out(formatNumbersTable(setup, numbers));
+    });
+
+  addSetupOptions(program.command('sizes'))
+    .description('print the smallest capital height and letter spacing that pass at 0, 2, 5, 10 and 20° from the gaze on this display: what a type scale needs')
+    .addOption(new Option('--audience <percent>', 'also give the capital height this share of an audience reads (ages 20–75, with and without distance glasses)').argParser(percentOf))
+    .addOption(new Option('--format <format>', 'output format').choices(['table', 'markdown', 'json']).default('table'))
+    .addHelpText('after', `
+Examples:
+  $ eyeproof sizes --setup vehicle-cluster --viewer age-70
+  $ eyeproof sizes --setup desktop-27in --audience 90 --format markdown`)
+    .action(async (opts: SetupOptions & { audience?: number; format: SizesFormat }) => {
+      const { setup } = await resolveSetup(opts);
+      io.out(formatSizes(setup, sizeSpec(setup, opts.audience), opts.format));
     });
 
   program.command('presets')

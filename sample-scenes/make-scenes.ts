@@ -18,7 +18,14 @@ interface Label {
   boxPx: [number, number, number, number];
   letterHeightPx: number;
   letterSpacingPx: number;
+  role?: 'glance' | 'look' | 'decorative';
 }
+
+/**
+ * Roles of the demo's labels: readouts a watch officer checks without looking away from the radar
+ * are `glance`; everything else is read when looked at (`look`, the default).
+ */
+const GLANCE_LABELS = new Set(['heading-value', 'speed-value', 'alarm', 'banner', 'clock', 'aisle', 'timer']);
 
 class Scene {
   readonly labels: Label[] = [];
@@ -61,7 +68,8 @@ class Scene {
     const png = await sharp(Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength), { raw: { width: this.width, height: this.height, channels: 4 } })
       .removeAlpha().png({ compressionLevel: 9 }).toBuffer();
     writeFileSync(join(here, `${this.name}.png`), png);
-    writeFileSync(join(here, `${this.name}.labels.json`), `${JSON.stringify({ frame: `${this.name}.png`, labels: this.labels }, null, 2)}\n`);
+    const labels = this.labels.map((l) => (GLANCE_LABELS.has(l.id) ? { ...l, role: 'glance' as const } : l));
+    writeFileSync(join(here, `${this.name}.labels.json`), `${JSON.stringify({ frame: `${this.name}.png`, labels }, null, 2)}\n`);
   }
 }
 

@@ -12,15 +12,17 @@ import { transformPlanes, type Matrix3 } from './colour/matrix3.js';
 import { scotopicOfLinearSrgb } from './colour/scotopic.js';
 import { checkGazeInFrame } from './config/validate.js';
 import type { Display, Setup, Viewer } from './config/setup.js';
-import { LETTER_LIMITS, letterLimits, letterSizeAt, opticalCutoffAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
-import { judgeLabel, type Label, type LabelVerdict } from './analysis/labels.js';
+import { FRAME_MIN_LETTER_PX, LETTER_LIMITS, letterLimits, letterSizeAt, opticalCutoffAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
+import { criticalSpacingDeg, designLength, judgeLabel, type DesignLength, type DesignUnits, type Label, type LabelMaps, type LabelVerdict } from './analysis/labels.js';
+import { offAxisRatio } from './optics/off-axis.js';
+import { audienceEyes, audienceShareFor, letterForShare, readingSizeDistribution, type AudienceEye } from './analysis/audience.js';
 import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
 import { buildLadder, createLadderSums, createLadderWorkspace, evaluateLadder, mapPyramid } from './image/ladder-pyramid.js';
 import { channelPlane, createLinearRgb, type LinearRgb } from './image/plane.js';
 import { applyOtf, otfGridFromKernel, relativeOtfGrid, scaleByRadialTransfer, type OtfGrid } from './optics/apply-otf.js';
 import { computeEyeOptics, luminanceMtfAt, typicalAberrationsAt5Mm, type EyeOptics, type EyeOpticsFigures, type EyeOpticsInput } from './optics/eye-optics.js';
-import { addVeil, type VeilResult } from './optics/veil.js';
+import { addVeil, viewerVeilAt, type VeilResult } from './optics/veil.js';
 import { headsetLensSigmaPx } from './optics/headset-lens.js';
 import { depthBlurSigmaPx } from './optics/depth-blur.js';
 import { kernelScales, scaleWeights } from './optics/scale-blend.js';
@@ -138,7 +140,7 @@ interface Context {
 }
 
 function contextFor(setup: Setup, frameSizePx: [number, number], gazePx?: [number, number]): Context {
-  const projection = projectionFor(setup.display, frameSizePx[0], frameSizePx[1]);
+  const projection = projectionFor(setup.display, frameSizePx[0], frameSizePx[1], setup.frame.placementPx);
   const gaze: [number, number] = gazePx ?? (setup.gaze ? [setup.gaze.xPx, setup.gaze.yPx] : [Math.floor(frameSizePx[0] / 2), Math.floor(frameSizePx[1] / 2)]);
   return { setup, projection, gazePx: gaze, model: agedAcuityModel(acuityModels[setup.models.acuity], setup.viewer.ageYears) };
 }
@@ -153,6 +155,7 @@ function agedAcuityModel(model: AcuityModel, ageYears: number): AcuityModel {
 /** Distance from the eye to what it focuses on: the screen point at the gaze, or a headset's virtual image. */
 function focalDistanceM(ctx: Context): number {
   if (ctx.gazeDepthM !== undefined) return ctx.gazeDepthM;
+  if (ctx.setup.gaze?.focusDistanceM !== undefined) return ctx.setup.gaze.focusDistanceM;
   const { display } = ctx.setup;
   if (display.kind === 'headset') return display.focalDistanceM;
   const [a, b] = pixelToTan(ctx.projection, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
@@ -247,6 +250,8 @@ interface EyeModel {
   optics: EyeOptics;
   limits: LetterLimits;
   light: LightState;
+  /** Pixel scale the optics were computed at, arcmin. */
+  pixelArcmin: number;
 }
 
 function eyeModel(ctx: Context, adapting: Adapting, scotopicRatio: number, pixelArcmin: number): EyeModel {
@@ -259,8 +264,11 @@ function eyeModel(ctx: Context, adapting: Adapting, scotopicRatio: number, pixel
   const optics = opticsFor(opticsInput(setup.viewer, eye, pixelArcmin));
   // High-contrast letters are limited by resolution; the neural contrast loss of age enters the letter
   // rule through the retina's cutoff (neural-ageing.ts), not a second time through the optics.
-  const limits = letterLimits((f) => luminanceMtfAt(optics, f), coreFraction(setup.viewer), eye.blurStrengthD, ctx.model.letterFactor);
-  return { eye, refEye: stateFor(setup.percept.referenceViewer), optics, limits, light: lightState(adapting.adaptingLuminanceCdM2, scotopicRatio) };
+  const limits: LetterLimits = {
+    ...letterLimits((f) => luminanceMtfAt(optics, f), coreFraction(setup.viewer), eye.blurStrengthD, ctx.model.letterFactor),
+    minLetterPx: FRAME_MIN_LETTER_PX * Math.max(1, ctx.projection.widthPx / (setup.frame.placementPx?.[2] ?? setup.display.resolutionPx[0])),
+  };
+  return { eye, refEye: stateFor(setup.percept.referenceViewer), optics, limits, light: lightState(adapting.adaptingLuminanceCdM2, scotopicRatio), pixelArcmin };
 }
 
 function surroundCdM2(setup: Setup): number {
@@ -325,6 +333,74 @@ export function computeNumbers(setup: Setup): DerivedNumbers {
   return numbersFrom(ctx, [size[0], size[1]], adapting, eyeModel(ctx, adapting, SCOTOPIC_PER_PHOTOPIC_WHITE, arcmin));
 }
 
+/** Eccentricities of the size specification, deg. */
+export const SIZE_SPEC_ECCENTRICITIES_DEG = [0, 2, 5, 10, 20] as const;
+
+export interface SizeSpecRow {
+  eccentricityDeg: number;
+  /** Smallest legible capital for the setup's viewer (worse side of the horizontal meridian), and what limits it. */
+  thresholdCapHeight: DesignLength;
+  limitedBy: LetterLimit;
+  /** Capital height for fluent reading (READING_RESERVE× the threshold): the size a type scale needs. */
+  capHeight: DesignLength;
+  /** Letter advance (centre to centre) that escapes crowding there (Song, Levi & Pelli 2014, Eq. 14). */
+  letterAdvance: DesignLength;
+  /** With an audience share: the capital height that share of each audience reads. */
+  audience?: { share: number; uncorrected: DesignLength; corrected: DesignLength };
+}
+
+export interface SizeSpec {
+  rows: SizeSpecRow[];
+  /** Angular size of one frame px at the gaze, the size every row is converted with. */
+  arcminPerPx: number;
+  adaptingLuminanceCdM2: number;
+  adaptingLuminanceFrom: Adapting['adaptingLuminanceFrom'];
+  units: DesignUnits;
+}
+
+/**
+ * The smallest capital height and letter advance that pass at given distances from the gaze on this
+ * display, for the setup's viewer and, with `audienceShare`, for that share of the audience (audience.ts).
+ * Without a frame the light is that of an 18 % grey frame (as `numbers`).
+ */
+export function sizeSpec(setup: Setup, audienceShare?: number): SizeSpec {
+  const size: [number, number] = [setup.display.resolutionPx[0] * setup.frame.pixelRatio, setup.display.resolutionPx[1] * setup.frame.pixelRatio].map(Math.round) as [number, number];
+  const ctx = contextFor(setup, size);
+  const { display } = setup;
+  const given = setup.light.adaptingLuminanceCdM2;
+  const adapting: Adapting = given === 'auto'
+    ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
+    : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+  const arcminPerPx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
+  const model = eyeModel(ctx, adapting, SCOTOPIC_PER_PHOTOPIC_WHITE, arcminPerPx);
+  const coneShare = model.light.mesopicFactorM;
+  const { eyes } = setup.viewer;
+  const units = designUnitsFor(setup, size[0]);
+  const base = acuityModels[setup.models.acuity];
+  const audience = audienceShare !== undefined ? audienceEyes({
+    focalDistanceM: focalDistanceM(ctx), adaptingLuminanceCdM2: adapting.adaptingLuminanceCdM2, adaptingFieldDeg: setup.light.adaptingFieldDeg, eyes, accommodationReserve: setup.models.accommodationReserve,
+  }) : undefined;
+  const rows = SIZE_SPEC_ECCENTRICITIES_DEG.map((e): SizeSpecRow => {
+    // The worse side of the horizontal meridian (one eye differs nasally and temporally).
+    const letters = [0, 180].map((m) => letterSizeAt(mixedCutoffCpd(ctx.model.cutoffCpd(e, m, eyes), e, coneShare), model.limits, e, arcminPerPx, coneShare < 0.5));
+    const letter = letters[0].px >= letters[1].px ? letters[0] : letters[1];
+    const worseMeridian = letters[0].px >= letters[1].px ? 0 : 180;
+    const row: SizeSpecRow = {
+      eccentricityDeg: e,
+      thresholdCapHeight: designLength(letter.px, arcminPerPx, units), limitedBy: letter.limitedBy,
+      capHeight: designLength(Math.ceil(READING_RESERVE * letter.px), arcminPerPx, units),
+      letterAdvance: designLength(Math.ceil((criticalSpacingDeg(e) * 60) / arcminPerPx), arcminPerPx, units),
+    };
+    if (audience && audienceShare !== undefined) {
+      const cutoff = mixedCutoffCpd(base.cutoffCpd(e, worseMeridian, eyes), e, coneShare);
+      const at = (kind: 'uncorrected' | 'corrected'): DesignLength => designLength(Math.ceil(letterForShare(audience, kind, audienceShare / 100, base, cutoff, e, arcminPerPx)), arcminPerPx, units);
+      row.audience = { share: audienceShare, uncorrected: at('uncorrected'), corrected: at('corrected') };
+    }
+    return row;
+  });
+  return { rows, arcminPerPx, ...adapting, units };
+}
+
 export interface ProofResult {
   numbers: DerivedNumbers;
   viewMap: ViewMap;
@@ -361,10 +437,36 @@ export interface ProofOptions {
   depthM?: Float32Array;
 }
 
-/** Checks that the frame can be shown on the display: same aspect ratio within 1 %. */
-export function frameFitsDisplay(display: Display, widthPx: number, heightPx: number): boolean {
-  const [w, h] = display.resolutionPx;
+/** Checks that the frame can be shown on the display (or its placement): same aspect ratio within 1 %. */
+export function frameFitsDisplay(display: Display, widthPx: number, heightPx: number, placementPx?: readonly number[]): boolean {
+  const [w, h] = placementPx ? [placementPx[2], placementPx[3]] : display.resolutionPx;
   return Math.abs(widthPx / heightPx / (w / h) - 1) <= 0.01;
+}
+
+/** How the frame's pixels map onto the display's, and what is said about it. */
+export interface FrameScale {
+  /** Frame pixels per display pixel. */
+  framePxPerDisplayPx: number;
+  /** The design's pixel ratio (frame.pixelRatio). */
+  pixelRatio: number;
+  /** Where the frame sits on the display, display px. */
+  placementPx: [number, number, number, number];
+  /** A sentence when the frame is scaled other than the pixel ratio says. */
+  note?: string;
+}
+
+export function frameScaleFor(setup: Setup, widthPx: number, heightPx: number): FrameScale {
+  const [dw, dh] = setup.display.resolutionPx;
+  const placementPx = setup.frame.placementPx ?? [0, 0, dw, dh];
+  const scale = widthPx / placementPx[2];
+  const { pixelRatio } = setup.frame;
+  const where = setup.frame.placementPx ? `its placement of ${placementPx[2]}×${placementPx[3]} display px` : `the ${dw}×${dh} px display`;
+  let note: string | undefined;
+  if (Math.abs(scale / pixelRatio - 1) > 0.01) {
+    const ratioHint = Math.abs(scale - Math.round(scale)) < 0.01 && Math.round(scale) >= 2 ? ` For an @${Math.round(scale)}x export set frame.pixelRatio to ${Math.round(scale)}.` : '';
+    note = `the ${widthPx}×${heightPx} px frame is scaled to fill ${where}: ${scale.toFixed(3)} frame px per display px, while frame.pixelRatio is ${pixelRatio}.${ratioHint}`;
+  }
+  return { framePxPerDisplayPx: scale, pixelRatio, placementPx: [...placementPx] as [number, number, number, number], ...(note ? { note } : {}) };
 }
 
 /** Everything that depends on the frame and the viewer, ready for looks at any gaze. */
@@ -398,7 +500,8 @@ export function prepareProof(frame: LinearRgb, setup: Setup, source: string, opt
   const size: [number, number] = [frame.width, frame.height];
   checkGazeInFrame(setup, frame.width, frame.height, source);
   const ctx = contextFor(setup, size);
-  if (depthM) {
+  const gazeInFrame = ctx.gazePx[0] >= 0 && ctx.gazePx[1] >= 0 && ctx.gazePx[0] < frame.width && ctx.gazePx[1] < frame.height;
+  if (depthM && gazeInFrame) {
     const atGaze = depthM[Math.floor(ctx.gazePx[1]) * frame.width + Math.floor(ctx.gazePx[0])];
     if (atGaze > 0) ctx.gazeDepthM = atGaze;
   }
@@ -537,18 +640,84 @@ export function lookAt(prepared: PreparedProof, options: LookOptions = {}): Proo
   const labels = options.labels;
   if (labels) {
     onStage('labels');
-    const fovealCutoffCpd = mixedCutoffCpd(ctx.model.cutoffCpd(0, 0, setup.viewer.eyes), 0, coneShare);
-    const labelMaps = {
-      ...viewMap, smallestLetterPx,
-      limitAt: (i: number) => LETTER_LIMITS[letterLimitIndex[i]],
-      fixated: (arcminPerPx: number) => letterSizeAt(fovealCutoffCpd, model.limits, 0, arcminPerPx, coneShare < 0.5),
-    };
+    const labelMaps = labelMapsFor(prepared, ctx, viewMap, seen);
     verdicts = labels.map((label) => judgeLabel(label, labelMaps));
+    for (const v of verdicts) {
+      if (!v.reach) continue;
+      const centre: [number, number] = [v.boxPx[0] + v.boxPx[2] / 2, v.boxPx[1] + v.boxPx[3] / 2];
+      v.reach.outlinePx = v.reach.radiusDeg.map((r, k) => pixelAtFieldPoint(ctx.projection, [centre[0] - 0.5, centre[1] - 0.5], r, v.reach!.directionsDeg[k]) ?? centre)
+        .map(([x, y]) => [Math.round(x * 10) / 10, Math.round(y * 10) / 10]);
+    }
   }
   return {
     numbers, viewMap, retinalImage: prepared.retinalImage, percept, cutoffCpd, smallestLetterPx, letterLimitIndex, maps, labels: verdicts,
     optics: model.optics, veil: prepared.veil, ...(prepared.depth ? { depth: prepared.depth } : {}), models: { acuity: ctx.model },
   };
+}
+
+/** Relative luminance of the frame (linear sRGB weights), computed once per prepared frame. */
+const frameLuminance = new WeakMap<PreparedProof, Float32Array>();
+
+/** Frame pixels per design unit and millimetres per frame pixel, for fixes in designers' units. */
+export function designUnitsFor(setup: Setup, frameWidthPx: number): DesignUnits {
+  const d = setup.display;
+  return { pixelRatio: setup.frame.pixelRatio, ...(d.kind === 'screen' ? { mmPerFramePx: d.widthMm / frameWidthPx } : {}) };
+}
+
+/** Everything the label judge needs at one gaze. */
+export function labelMapsFor(prepared: PreparedProof, ctx: Context, viewMap: ViewMap, seen?: Float32Array): LabelMaps {
+  const { setup, model, frame } = prepared;
+  let luminance = frameLuminance.get(prepared);
+  if (!luminance) {
+    luminance = new Float32Array(frame.width * frame.height);
+    const [r, g, b] = frame.planes;
+    for (let i = 0; i < luminance.length; i++) luminance[i] = 0.2126 * r[i] + 0.7152 * g[i] + 0.0722 * b[i];
+    frameLuminance.set(prepared, luminance);
+  }
+  const coneShare = model.light.mesopicFactorM;
+  const { eyes } = setup.viewer;
+  const referenceOptics = opticsFor(opticsInput(setup.percept.referenceViewer, model.refEye, model.pixelArcmin));
+  return {
+    ...viewMap, ...(seen ? { seen } : {}), luminance,
+    letterAt: (e, m, arcminPerPx) => letterSizeAt(mixedCutoffCpd(ctx.model.cutoffCpd(e, m, eyes), e, coneShare), model.limits, e, arcminPerPx, coneShare < 0.5),
+    transferAt: (f, e) => luminanceMtfAt(model.optics, f) * offAxisRatio(e, f),
+    referenceTransferAt: (f, e) => luminanceMtfAt(referenceOptics, f) * offAxisRatio(e, f),
+    veilAt: (x, y) => viewerVeilAt(prepared.veil, x, y),
+    blackShare: setup.display.blackLuminanceCdM2 / setup.display.peakLuminanceCdM2,
+    coreFraction: coreFraction(setup.viewer),
+    units: designUnitsFor(setup, frame.width),
+    audienceAt: (e, m, arcminPerPx, letterPx) => {
+      const base = acuityModels[setup.models.acuity];
+      return audienceShareFor(audienceFor(prepared), base, mixedCutoffCpd(base.cutoffCpd(e, m, eyes), e, coneShare), e, arcminPerPx, letterPx);
+    },
+  };
+}
+
+/** The audience's reading sizes when looking at text at the gaze (for audience.png), per audience. */
+export function audienceCurves(prepared: PreparedProof, gazePx?: [number, number]): { arcminPerPx: number; curves: { kind: 'uncorrected' | 'corrected'; points: [number, number][] }[] } {
+  const { setup, model } = prepared;
+  const ctx = { ...prepared.ctx, gazePx: gazePx ?? prepared.ctx.gazePx };
+  const arcminPerPx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
+  const base = acuityModels[setup.models.acuity];
+  const cutoff = mixedCutoffCpd(base.cutoffCpd(0, 0, setup.viewer.eyes), 0, model.light.mesopicFactorM);
+  const eyes = audienceFor(prepared);
+  return { arcminPerPx, curves: (['uncorrected', 'corrected'] as const).map((kind) => ({ kind, points: readingSizeDistribution(eyes, kind, base, cutoff, 0, arcminPerPx) })) };
+}
+
+const audiences = new WeakMap<PreparedProof, AudienceEye[]>();
+
+/** The audience's eyes in the proof's light and at its viewing distance, once per prepared frame. */
+export function audienceFor(prepared: PreparedProof): AudienceEye[] {
+  let eyes = audiences.get(prepared);
+  if (!eyes) {
+    const { setup } = prepared;
+    eyes = audienceEyes({
+      focalDistanceM: focalDistanceM(prepared.ctx), adaptingLuminanceCdM2: prepared.adapting.adaptingLuminanceCdM2, adaptingFieldDeg: setup.light.adaptingFieldDeg,
+      eyes: setup.viewer.eyes, accommodationReserve: setup.models.accommodationReserve,
+    });
+    audiences.set(prepared, eyes);
+  }
+  return eyes;
 }
 
 /** Runs the whole proof of one frame for one eye state. `source` names the setup in error messages. */

@@ -3,27 +3,33 @@
  * report out. No argv, exit codes or HTTP here.
  */
 import type { Setup } from './config/setup.js';
-import { InputError } from './errors.js';
+import { ConfigError, InputError } from './errors.js';
 import { checkFramePixels, DEFAULT_MAX_FRAME_PIXELS, probeImage, decodeFrame } from './io/decode-frame.js';
 import { encodeRgba8Png, linearToRgba8 } from './io/encode-png.js';
 import type { OutputFile } from './io/write-outputs.js';
-import { frameFitsDisplay, runProof, type ProofResult, type StageListener } from './pipeline.js';
+import { audienceCurves, frameFitsDisplay, frameScaleFor, lookAt, prepareProof, type ProofResult, type StageListener } from './pipeline.js';
 import { renderCompare } from './render/compare.js';
 import { renderDetailMap } from './render/detail-map.js';
 import { renderPsfPicture } from './render/psf-picture.js';
 import { projectionFor } from './geometry/projection.js';
 import { proofReport } from './report/build-report.js';
-import { FRAME_MIN_LETTER_PX } from './analysis/letter-size.js';
+import { FRAME_MIN_LETTER_PX, READING_RESERVE } from './analysis/letter-size.js';
+import { AUDIENCE_SOURCES } from './analysis/audience.js';
+import { renderAudienceChart, renderReach } from './render/answers.js';
 import { parseLabels } from './io/read-labels.js';
 import { decodeDepthMap, type DepthUnit } from './io/decode-depth.js';
 import { CAUTION_SHORT } from './report/cautions.js';
+import { resolveGazeSpec, type ResolvedGaze } from './geometry/gaze-spec.js';
+import type { Label, LabelVerdict } from './analysis/labels.js';
+import { detectTextRuns, type DetectedRun } from './analysis/detect-text.js';
 
-export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'psf.png', 'report.json'] as const;
+export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'reach.png', 'audience.png', 'psf.png', 'report.json'] as const;
 
 export interface ProofOutputs {
   files: OutputFile[];
   report: Record<string, unknown>;
   result: ProofResult;
+  fixations?: FixationResult[];
 }
 
 /** One line describing the setup and viewer, for captions. */
@@ -53,20 +59,72 @@ export interface DepthInput {
   unit: DepthUnit;
 }
 
-export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setup: Setup, setupSource: string, onStage: StageListener = () => {}, labelsInput?: LabelsInput, depthInput?: DepthInput, maxPixels = DEFAULT_MAX_FRAME_PIXELS): Promise<ProofOutputs> {
+export interface ProofInputs {
+  onStage?: StageListener;
+  /** Said once, on stderr by the command line: rescaling and other things the user should know. */
+  onNote?: (note: string) => void;
+  labels?: LabelsInput;
+  depth?: DepthInput;
+  maxPixels?: number;
+  /** Where the viewer looks, in any of the forms of gaze-spec.ts; a list gives verdicts per fixation. */
+  gaze?: string;
+  /** Without a labels file, find the text runs in the frame (detect-text.ts) and judge those. */
+  detectLabels?: boolean;
+}
+
+/** The verdicts at one fixation of a list. */
+export interface FixationResult {
+  given: string;
+  gazePx: [number, number];
+  outsideFrame: boolean;
+  labels?: LabelVerdict[];
+}
+
+export async function proofFrame(frameBytes: Uint8Array, frameFile: string, givenSetup: Setup, setupSource: string, inputs: ProofInputs = {}): Promise<ProofOutputs> {
+  const { onStage = () => {}, onNote = () => {}, labels: labelsInput, depth: depthInput, maxPixels = DEFAULT_MAX_FRAME_PIXELS } = inputs;
+  let setup = givenSetup;
   onStage('decoding frame');
   // The header first: size and aspect are checked before the pixels are decoded.
   const probe = await probeImage(frameBytes, frameFile);
   checkFramePixels(probe.width, probe.height, frameFile, maxPixels);
-  if (!frameFitsDisplay(setup.display, probe.width, probe.height)) {
-    const [w, h] = setup.display.resolutionPx;
-    throw new InputError(frameFile, `is ${probe.width}×${probe.height} px but the display is ${w}×${h} px (aspect ratios differ by more than 1 %)`,
-      `Export the frame at ${w}×${h} (or the same aspect ratio), or give display.resolutionPx the frame's size in the setup.`);
+  const placement = setup.frame.placementPx;
+  if (placement) {
+    const [dw, dh] = setup.display.resolutionPx;
+    if (placement[0] + placement[2] > dw || placement[1] + placement[3] > dh || placement[2] < 1 || placement[3] < 1) {
+      throw new ConfigError(setupSource, [{ path: 'frame.placementPx', received: placement, expected: `[x, y, width, height] inside the ${dw}×${dh} px display, with a width and height of at least 1 px` }]);
+    }
   }
+  if (!frameFitsDisplay(setup.display, probe.width, probe.height, placement)) {
+    const [w, h] = placement ? [placement[2], placement[3]] : setup.display.resolutionPx;
+    const what = placement ? `its placement (frame.placementPx) is ${w}×${h} display px` : `the display is ${w}×${h} px`;
+    throw new InputError(frameFile, `is ${probe.width}×${probe.height} px but ${what} (aspect ratios differ by more than 1 %)`,
+      placement ? 'Give frame.placementPx the size the frame takes on the display, or export the frame at that aspect ratio.'
+        : `Export the frame at ${w}×${h} (or the same aspect ratio), give display.resolutionPx the frame's size, or place a crop with frame.placementPx.`);
+  }
+  const scale = frameScaleFor(setup, probe.width, probe.height);
+  if (scale.note) onNote(scale.note);
   const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb, maxPixels);
-  const labels = labelsInput ? parseLabels(labelsInput.text, labelsInput.file, image.width, image.height) : undefined;
+  let labels: Label[] | undefined = labelsInput ? parseLabels(labelsInput.text, labelsInput.file, image.width, image.height) : undefined;
+  let detected: DetectedRun[] | undefined;
+  if (!labels && inputs.detectLabels) {
+    onStage('finding text in the frame');
+    detected = detectTextRuns(linearToRgba8(image), image.width, image.height);
+    labels = detected;
+    onNote(`no labels file, so ${detected.length} text runs found in the frame are judged (as "look" labels; text is not read back). Write them with \`eyeproof labels ${frameFile}\`, correct them and give roles, then pass the file with --labels.`);
+  }
   const depthM = depthInput ? await decodeDepthMap(depthInput.bytes, depthInput.file, depthInput.unit, image.width, image.height) : undefined;
-  const result = runProof(image, setup, setupSource, { onStage, labels, depthM });
+  let fixations: ResolvedGaze[] | undefined;
+  if (inputs.gaze !== undefined) {
+    const projection = projectionFor(setup.display, image.width, image.height, setup.frame.placementPx);
+    const [dw, dh] = setup.display.resolutionPx;
+    const displayCentrePx: [number, number] = [(dw / 2 - scale.placementPx[0]) * scale.framePxPerDisplayPx - 0.5, (dh / 2 - scale.placementPx[1]) * scale.framePxPerDisplayPx - 0.5];
+    fixations = resolveGazeSpec(inputs.gaze, { frameSizePx: [image.width, image.height], projection, displayCentrePx, labels });
+    const first = fixations[0].gazePx;
+    setup = { ...setup, gaze: { ...setup.gaze, xPx: Math.round(first[0]), yPx: Math.round(first[1]) } };
+    for (const f of fixations) if (f.outsideFrame) onNote(`the gaze ${f.given} (${Math.round(f.gazePx[0])},${Math.round(f.gazePx[1])} px) is outside the frame, on the display plane; the eye focuses ${setup.gaze?.focusDistanceM !== undefined ? `at ${setup.gaze.focusDistanceM} m (gaze.focusDistanceM)` : 'on that plane (set gaze.focusDistanceM for a road or a far scene)'}.`);
+  }
+  const prepared = prepareProof(image, setup, setupSource, { onStage, labels, depthM });
+  const result = lookAt(prepared, { labels, onStage });
 
   onStage('rendering outputs');
   const caption = setupCaption(setup, result);
@@ -76,25 +134,52 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, setu
   const percept = await encodeRgba8Png(perceptRgba, width, height);
   const detail = renderDetailMap({
     width, height, frameRgba, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
-    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: FRAME_MIN_LETTER_PX, labels: result.labels, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
+    arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: prepared.model.limits.minLetterPx ?? FRAME_MIN_LETTER_PX, labels: result.labels, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
   });
   const compare = renderCompare({
-    width, height, frameRgba, perceptRgba, projection: projectionFor(setup.display, width, height),
+    width, height, frameRgba, perceptRgba, projection: projectionFor(setup.display, width, height, setup.frame.placementPx),
     gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot,
     perceptTitle: setup.percept.mode === 'same-display'
       ? `What this viewer resolves, for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer on this screen (gaze fixed at the ring)`
       : 'What this viewer resolves, on the retina (gaze fixed at the ring)', caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,
   });
+  const reach = renderReach({ width, height, frameRgba, gazePx: result.numbers.gazePx, labels: result.labels, caption, caution: `eyeproof · ${CAUTION_SHORT}` });
+  const curves = audienceCurves(prepared);
+  const audienceChart = renderAudienceChart({
+    curves: curves.curves.map((c) => ({ name: c.kind === 'corrected' ? 'with distance glasses' : 'without glasses', points: [[0, 0], ...c.points, [Math.max(...c.points.map((p) => p[0])) * 1.15, 1]] as [number, number][] })),
+    labels: (result.labels ?? []).filter((l) => l.role !== 'decorative').map((l) => ({ id: l.id, px: l.letterHeightPx })),
+    arcminPerPx: curves.arcminPerPx,
+    title: 'Share of the audience that reads text when looking at it, by capital height',
+    caption: `${caption.split(' · ')[0]}. Audience: ${AUDIENCE_SOURCES}. Reading: ${READING_RESERVE}× the smallest legible letter; crowding and contrast aside. Nobody reads below ${READING_RESERVE * (prepared.model.limits.minLetterPx ?? FRAME_MIN_LETTER_PX)} px: there the display's pixels, not the eye, are the limit.`,
+    caution: CAUTION_SHORT,
+  });
   const f = result.optics.figures;
   const psf = renderPsfPicture(result.optics.channelPsfs, result.optics.grid, f,
     `pupil ${result.numbers.eye.pupilDiameterMm.toFixed(1)} mm · white-light MTF at 10/30 cpd ${f.mtfAt10Cpd.toFixed(2)}/${f.mtfAt30Cpd.toFixed(2)} · Strehl at 555 nm ${f.strehlRatio.toFixed(3)} · 50/80 % of the light within ${f.encircledEnergy50DiameterArcmin.toFixed(1)}′/${f.encircledEnergy80DiameterArcmin.toFixed(1)}′ · in focus: ${f.focusWavelengthNm.toFixed(0)} nm`);
-  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], labelsInput?.file, depthInput ? { file: depthInput.file, unit: depthInput.unit } : undefined);
+  const fixationResults: FixationResult[] | undefined = fixations?.map((f, i) => ({
+    given: f.given, gazePx: [Math.round(f.gazePx[0]), Math.round(f.gazePx[1])], outsideFrame: f.outsideFrame,
+    ...(labels ? { labels: i === 0 ? result.labels : lookAt(prepared, { labels, gazePx: [Math.round(f.gazePx[0]), Math.round(f.gazePx[1])] }).labels } : {}),
+  }));
+  const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], {
+    labelsFile: labelsInput?.file ?? (detected ? '(found in the frame: eyeproof labels)' : undefined), ...(depthInput ? { depthFile: { file: depthInput.file, unit: depthInput.unit } } : {}), frameScale: scale,
+    ...(fixationResults ? { fixations: fixationResults } : {}),
+  });
   const files: OutputFile[] = [
     { name: 'percept.png', bytes: percept },
     { name: 'detail-map.png', bytes: await encodeRgba8Png(detail.rgba, detail.width, detail.height) },
     { name: 'compare.png', bytes: await encodeRgba8Png(compare.rgba, compare.width, compare.height) },
+    { name: 'reach.png', bytes: await encodeRgba8Png(reach.rgba, reach.width, reach.height) },
+    { name: 'audience.png', bytes: await encodeRgba8Png(audienceChart.rgba, audienceChart.width, audienceChart.height) },
     { name: 'psf.png', bytes: await encodeRgba8Png(psf.rgba, psf.width, psf.height) },
     { name: 'report.json', bytes: `${JSON.stringify(report, null, 2)}\n` },
   ];
-  return { files, report, result };
+  return { files, report, result, ...(fixationResults ? { fixations: fixationResults } : {}) };
+}
+
+/** The text runs of a frame (detect-text.ts), decoded and checked as a proof would. */
+export async function detectLabelsInFrame(bytes: Uint8Array, file: string, maxPixels = DEFAULT_MAX_FRAME_PIXELS): Promise<{ runs: DetectedRun[]; width: number; height: number }> {
+  const probe = await probeImage(bytes, file);
+  checkFramePixels(probe.width, probe.height, file, maxPixels);
+  const { image } = await decodeFrame(bytes, file, [0, 0, 0], maxPixels);
+  return { runs: detectTextRuns(linearToRgba8(image), image.width, image.height), width: image.width, height: image.height };
 }

@@ -29,13 +29,14 @@ beforeAll(async () => {
 });
 
 describe('eyeproof command', () => {
-  test('proof writes percept.png, detail-map.png, compare.png, psf.png and report.json and exits 0', async () => {
+  test('proof writes every output and exits 0, saying the frame is scaled to the display', async () => {
     const out = join(dir, 'out');
     const r = await run(['proof', frame, '--setup', 'desktop-27in', '--viewer', 'age-55', '--gaze', '320,180', '--out', out]);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
     expect(r.stderr).toMatch(/optics/);
-    expect(readdirSync(out).sort()).toEqual(['compare.png', 'detail-map.png', 'percept.png', 'psf.png', 'report.json']);
+    expect(readdirSync(out).sort()).toEqual(['audience.png', 'compare.png', 'detail-map.png', 'percept.png', 'psf.png', 'reach.png', 'report.json']);
+    expect(r.stderr).toMatch(/note: the 640×360 px frame is scaled to fill the 2560×1440 px display: 0\.250 frame px per display px/);
     const report = JSON.parse(readFileSync(join(out, 'report.json'), 'utf8'));
     expect(report.cautions.join(' ')).toMatch(/not a medical device/);
     expect(report.gaze).toEqual({ xPx: 320, yPx: 180 });
@@ -183,5 +184,51 @@ describe('eyeproof command', () => {
     const bad = await run(['proof', frame, '--percept-mode', 'fisheye', '--out', join(dir, 'bad-mode')]);
     expect(bad.code).toBe(2);
     expect(bad.stderr).toMatch(/same-display/);
+  });
+
+  test('sizes prints the smallest passing capital height at 0, 2, 5, 10 and 20° as a table, Markdown and JSON, with an audience share', async () => {
+    const table = await run(['sizes', '--setup', 'desktop-27in', '--viewer', 'age-55']);
+    expect(table.code).toBe(0);
+    expect(table.stdout).toMatch(/cap height px/);
+    const md = await run(['sizes', '--setup', 'desktop-27in', '--format', 'markdown', '--audience', '90']);
+    expect(md.stdout).toMatch(/\| from gaze ° \| cap height px \|/);
+    expect(md.stdout).toMatch(/cap px for 90 % corrected/);
+    const json = JSON.parse((await run(['sizes', '--setup', 'desktop-27in', '--format', 'json', '--audience', '90'])).stdout);
+    expect(json.rows.map((r: { eccentricityDeg: number }) => r.eccentricityDeg)).toEqual([0, 2, 5, 10, 20]);
+    expect(json.rows[4].capHeight.px).toBeGreaterThan(json.rows[0].capHeight.px);
+    const bad = await run(['sizes', '--audience', '120']);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toMatch(/percent/);
+  });
+
+  test('labels finds text runs and writes a labels file to correct; it never overwrites one, nor the frame', async () => {
+    const sub = join(dir, 'labels-cmd');
+    mkdirSync(sub);
+    const f = join(sub, 'console.png');
+    copyFileSync(join(root, 'sample-scenes/picker-headset.png'), f);
+    const first = await run(['labels', f]);
+    expect(first.code).toBe(0);
+    const written = JSON.parse(readFileSync(join(sub, 'console.labels.json'), 'utf8'));
+    expect(written.labels.length).toBeGreaterThanOrEqual(9);
+    const again = await run(['labels', f]);
+    expect(again.code).toBe(5);
+    expect(again.stderr).toMatch(/exists already.*--force/s);
+    const onFrame = await run(['labels', f, '--out', f, '--force']);
+    expect(onFrame.code).toBe(5);
+    expect(onFrame.stderr).toMatch(/is one of the inputs/);
+  });
+
+  test('without a labels file, proof judges the text runs it finds and says so', async () => {
+    const sub = join(dir, 'found');
+    mkdirSync(sub);
+    const f = join(sub, 'picker.png');
+    copyFileSync(join(root, 'sample-scenes/picker-headset.png'), f);
+    const r = await run(['proof', f, '--setup', join(root, 'sample-scenes/picker-headset.setup.json'), '--out', join(sub, 'out')]);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toMatch(/no labels file, so \d+ text runs found in the frame are judged/);
+    const report = JSON.parse(readFileSync(join(sub, 'out', 'report.json'), 'utf8'));
+    expect(report.labels.verdicts.length).toBeGreaterThanOrEqual(9);
+    const none = await run(['proof', f, '--setup', join(root, 'sample-scenes/picker-headset.setup.json'), '--no-detect-labels', '--out', join(sub, 'out2')]);
+    expect(none.stderr).toMatch(/no labels, so no verdicts/);
   });
 });

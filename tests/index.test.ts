@@ -4,7 +4,7 @@ import * as api from '../src/index.js';
 test('the library API exports exactly this list (regression snapshot of the public surface)', () => {
   expect(Object.keys(api).sort()).toEqual([
     'CAUTIONS', 'ConfigError', 'InputError', 'OutputError', 'PROOF_OUTPUT_NAMES', 'computeNumbers', 'decodeFrame',
-    'displayPresets', 'mergeSetupJson', 'numbersReport', 'proofFrame', 'runProof', 'setupJsonSchema', 'validateSetup',
-    'viewerPresets', 'virtualImageDistanceM',
+    'detectLabelsInFrame', 'detectTextRuns', 'displayPresets', 'lookAt', 'mergeSetupJson', 'numbersReport', 'prepareProof', 'proofFrame',
+    'resolveGazeSpec', 'runProof', 'setupJsonSchema', 'sizeSpec', 'validateSetup', 'viewerPresets', 'virtualImageDistanceM',
   ]);
 });

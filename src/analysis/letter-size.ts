@@ -37,6 +37,11 @@ export interface LetterLimits {
   letterFactor: number;
   /** The eye's residual blur strength is large enough to name defocus as the optical limit. */
   defocusLimited: boolean;
+  /**
+   * Smallest letter the picture can carry, frame px: FRAME_MIN_LETTER_PX of the coarser of the
+   * frame's and the display's pixels (a 2× export shown on its display is limited by the display).
+   */
+  minLetterPx?: number;
 }
 
 /**
@@ -107,10 +112,11 @@ export function letterSizeAt(retinalCutoffCpd: number, limits: LetterLimits, ecc
   const opticalArcmin = (OPTICAL_CYCLES_PER_LETTER * 60) / opticalCutoffAt(limits, eccentricityDeg);
   const eyeArcmin = Math.hypot(neuralArcmin, opticalArcmin);
   const eyePx = eyeArcmin / arcminPerPx;
-  const limitedBy: LetterLimit = eyePx < FRAME_MIN_LETTER_PX ? 'display pixels'
+  const floor = limits.minLetterPx ?? FRAME_MIN_LETTER_PX;
+  const limitedBy: LetterLimit = eyePx < floor ? 'display pixels'
     : opticalArcmin > neuralArcmin ? (limits.defocusLimited ? 'defocus' : 'optics')
       : rodDominated ? 'rod vision' : 'retina';
-  return { eyeArcmin, px: Math.max(eyePx, FRAME_MIN_LETTER_PX), limitedBy };
+  return { eyeArcmin, px: Math.max(eyePx, floor), limitedBy };
 }
 
 /** logMAR of a letter height: the 5′ letter is logMAR 0 (common practice). */

@@ -152,10 +152,14 @@ export const perceptDecl: ObjectDecl = {
 
 export const gazeDecl: ObjectDecl = {
   type: 'object',
-  doc: 'Where the viewer looks, in frame pixels (default: the frame centre).',
+  doc: 'Where the viewer looks, in frame pixels (default: the frame centre). A point outside the frame (the road above a cluster) lies on the display plane, up to two frame sizes beyond each edge.',
   fields: {
-    xPx: { type: 'number', unit: 'px', minimum: 0, maximum: 16384, doc: 'Column of the gaze point (0 = left edge).' },
-    yPx: { type: 'number', unit: 'px', minimum: 0, maximum: 16384, doc: 'Row of the gaze point (0 = top edge).' },
+    xPx: { type: 'number', unit: 'px', minimum: -32768, maximum: 49152, doc: 'Column of the gaze point (0 = left edge of the frame; negative or beyond the width = outside the frame).' },
+    yPx: { type: 'number', unit: 'px', minimum: -32768, maximum: 49152, doc: 'Row of the gaze point (0 = top edge of the frame).' },
+    focusDistanceM: {
+      type: 'number', unit: 'm', minimum: 0.1, maximum: 1e6,
+      doc: 'Distance the eye focuses at while looking there (e.g. the road, 20 m, for a driver glancing at a cluster); default: the display plane at the gaze point.',
+    },
   },
 };
 
@@ -166,6 +170,14 @@ export const frameDecl: ObjectDecl = {
     backgroundRgb: {
       type: 'tuple', names: ['red', 'green', 'blue'], item: { type: 'number', unit: '', minimum: 0, maximum: 255, integer: true },
       default: [0, 0, 0], doc: 'sRGB 8-bit colour that transparent pixels are composited over (as a compositor does, in encoded values).',
+    },
+    pixelRatio: {
+      type: 'number', unit: '', minimum: 0.25, maximum: 8, default: 1,
+      doc: 'Frame pixels per display pixel of the design (2 for an @2x export). Fixes are given in design units too (frame px / pixelRatio).',
+    },
+    placementPx: {
+      type: 'tuple', names: ['x', 'y', 'width', 'height'], item: { type: 'number', unit: 'px', minimum: 0, maximum: 16384 },
+      doc: 'Where the frame sits on the display, in display pixels: a crop or one widget. Default: the frame fills the display.',
     },
   },
 };

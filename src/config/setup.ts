@@ -70,6 +70,8 @@ export interface PerceptSettings {
 export interface GazePx {
   xPx: number;
   yPx: number;
+  /** Distance the eye focuses at while looking there, m (default: the display plane at the gaze). */
+  focusDistanceM?: number;
 }
 
 export type AcuityModelName = 'rgc-sampling' | 'contrast-threshold';
@@ -80,7 +82,7 @@ export interface Setup {
   light: Light;
   /** Undefined means the centre of the frame. */
   gaze?: GazePx;
-  frame: { backgroundRgb: [number, number, number] };
+  frame: { backgroundRgb: [number, number, number]; pixelRatio: number; placementPx?: [number, number, number, number] };
   percept: PerceptSettings;
   models: {
     /** Share of the accommodation amplitude kept in reserve in sustained viewing. */

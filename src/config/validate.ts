@@ -258,7 +258,7 @@ export function validateSetup(input: unknown, source: string): Setup {
     const g = checkValue(input.gaze, sectionDecls.gaze, 'gaze', problems) as Json | undefined;
     if (g && (g.xPx === undefined || g.yPx === undefined)) {
       problems.push({ path: 'gaze', received: input.gaze, expected: 'both xPx and yPx' });
-    } else if (g) gaze = { xPx: g.xPx as number, yPx: g.yPx as number };
+    } else if (g) gaze = { xPx: g.xPx as number, yPx: g.yPx as number, ...(g.focusDistanceM !== undefined ? { focusDistanceM: g.focusDistanceM as number } : {}) };
   }
   if (problems.length > 0 || !display || !viewerIn.viewer || !referenceIn.viewer || !light || !frame || !models) throw new ConfigError(source, problems);
   const mode = percept.mode as Setup['percept']['mode'] | undefined;
@@ -271,7 +271,10 @@ export function validateSetup(input: unknown, source: string): Setup {
       ...(light.surroundLuminanceCdM2 !== undefined ? { surroundLuminanceCdM2: light.surroundLuminanceCdM2 as number } : {}),
     },
     gaze,
-    frame: { backgroundRgb: frame.backgroundRgb as [number, number, number] },
+    frame: {
+      backgroundRgb: frame.backgroundRgb as [number, number, number], pixelRatio: frame.pixelRatio as number,
+      ...(frame.placementPx ? { placementPx: frame.placementPx as [number, number, number, number] } : {}),
+    },
     percept: {
       mode: mode ?? (display.kind === 'headset' ? 'retinal-image' : 'same-display'),
       modeFrom: mode ? 'setup' : 'display kind',
@@ -322,12 +325,15 @@ function wavefrontOf(w: Json | undefined, path: string, problems: ConfigProblem[
   return { wavefront: { pupilDiameterMm: w.pupilDiameterMm as number, coefficientsUm: w.coefficientsUm as number[] } };
 }
 
-/** Checks the gaze against the frame size; the frame is only known when it has been read. */
+/** Checks the gaze against the frame size (the frame is only known when it has been read): inside it or on the display plane around it. */
 export function checkGazeInFrame(setup: Setup, widthPx: number, heightPx: number, source: string): void {
   const g = setup.gaze;
   if (!g) return;
   const problems: ConfigProblem[] = [];
-  if (g.xPx > widthPx - 1) problems.push({ path: 'gaze.xPx', received: g.xPx, expected: `a column inside the frame, 0 to ${widthPx - 1}` });
-  if (g.yPx > heightPx - 1) problems.push({ path: 'gaze.yPx', received: g.yPx, expected: `a row inside the frame, 0 to ${heightPx - 1}` });
+  const range = (size: number): [number, number] => [-2 * size, 3 * size - 1];
+  const [x0, x1] = range(widthPx);
+  const [y0, y1] = range(heightPx);
+  if (g.xPx < x0 || g.xPx > x1) problems.push({ path: 'gaze.xPx', received: g.xPx, expected: `a column from ${x0} to ${x1}: inside the ${widthPx} px wide frame or up to two frame widths beyond it` });
+  if (g.yPx < y0 || g.yPx > y1) problems.push({ path: 'gaze.yPx', received: g.yPx, expected: `a row from ${y0} to ${y1}: inside the ${heightPx} px high frame or up to two frame heights beyond it` });
   if (problems.length) throw new ConfigError(source, problems);
 }

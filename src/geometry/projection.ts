@@ -22,30 +22,33 @@ export interface Projection {
   planeDistanceMm: number;
 }
 
-/** Builds the projection of a frame of the given size shown full-screen on the display. */
-export function projectionFor(display: Display, widthPx: number, heightPx: number): Projection {
+/**
+ * Builds the projection of a frame of the given size shown on the display: filling it, or at
+ * `placementPx` ([x, y, width, height] in display pixels) for a crop or a widget.
+ */
+export function projectionFor(display: Display, widthPx: number, heightPx: number, placementPx?: readonly [number, number, number, number]): Projection {
   const cxPx = widthPx / 2;
   const cyPx = heightPx / 2;
-  if (display.kind === 'screen') {
-    const d = display.viewingDistanceMm;
-    return {
-      widthPx, heightPx, cxPx, cyPx,
-      kxPerPx: display.widthMm / widthPx / d,
-      kyPerPx: display.heightMm / heightPx / d,
-      // The eye sits at eyeOffsetMm from the screen centre, so the centre is at −offset from the eye.
-      txTan: -display.eyeOffsetMm[0] / d,
-      tyTan: -display.eyeOffsetMm[1] / d,
-      planeDistanceMm: d,
-    };
-  }
-  // Rectilinear eye buffer: f = (W/2) / tan(FOV/2), so one pixel spans tan(FOV/2)/(W/2) in tan space.
+  const [dw, dh] = display.resolutionPx;
+  const [px, py, pw, ph] = placementPx ?? [0, 0, dw, dh];
+  // tan-space size of one display pixel, and of the display's centre relative to the eye's axis.
+  const screen = display.kind === 'screen';
+  const d = screen ? display.viewingDistanceMm : display.focalDistanceM * 1000;
+  const kx = screen ? display.widthMm / dw / d : Math.tan(degToRad(display.fieldOfViewDeg[0] / 2)) / (dw / 2);
+  const ky = screen ? display.heightMm / dh / d : Math.tan(degToRad(display.fieldOfViewDeg[1] / 2)) / (dh / 2);
+  // The eye sits at eyeOffsetMm from the screen centre, so the centre is at −offset from the eye.
+  const tx = screen ? -display.eyeOffsetMm[0] / d : 0;
+  const ty = screen ? -display.eyeOffsetMm[1] / d : 0;
+  // The frame's centre in display pixels, from the display's centre (rectilinear eye buffers: f = (W/2) / tan(FOV/2)).
+  const ox = px + pw / 2 - dw / 2;
+  const oy = py + ph / 2 - dh / 2;
   return {
     widthPx, heightPx, cxPx, cyPx,
-    kxPerPx: Math.tan(degToRad(display.fieldOfViewDeg[0] / 2)) / (widthPx / 2),
-    kyPerPx: Math.tan(degToRad(display.fieldOfViewDeg[1] / 2)) / (heightPx / 2),
-    txTan: 0,
-    tyTan: 0,
-    planeDistanceMm: display.focalDistanceM * 1000,
+    kxPerPx: (kx * pw) / widthPx,
+    kyPerPx: (ky * ph) / heightPx,
+    txTan: tx + ox * kx,
+    tyTan: ty - oy * ky,
+    planeDistanceMm: d,
   };
 }
 

@@ -1,9 +1,9 @@
 /** Reading a labels file: the text runs of a frame with their boxes and letter sizes. */
-import type { Label } from '../analysis/labels.js';
+import { LABEL_ROLES, type Label } from '../analysis/labels.js';
 import { InputError } from '../errors.js';
 import { describeJsonProblems, parseJson } from './parse-json.js';
 
-const FIX = 'A labels file is {"labels": [{"id", "text", "boxPx": [x, y, width, height], "letterHeightPx", "letterSpacingPx"?}]} in frame pixels; see sample-scenes/*.labels.json.';
+const FIX = 'A labels file is {"labels": [{"id", "text", "boxPx": [x, y, width, height], "letterHeightPx", "letterSpacingPx"?, "role"?: "glance" | "look" | "decorative"}]} in frame pixels; see sample-scenes/*.labels.json.';
 
 /** Parses and checks labels JSON against the frame size; every problem names the label and field. */
 export function parseLabels(text: string, file: string, frameWidthPx: number, frameHeightPx: number): Label[] {
@@ -26,7 +26,13 @@ export function parseLabels(text: string, file: string, frameWidthPx: number, fr
     }
     if (!isNum(raw?.letterHeightPx) || raw.letterHeightPx <= 0) problems.push(`${where}.letterHeightPx: expected a capital-letter height above 0 px`);
     if (raw?.letterSpacingPx !== undefined && !isNum(raw.letterSpacingPx)) problems.push(`${where}.letterSpacingPx: expected a number of px`);
-    labels.push({ id: typeof raw?.id === 'string' ? raw.id : `label-${i + 1}`, text: raw?.text, boxPx: box, letterHeightPx: raw?.letterHeightPx, letterSpacingPx: raw?.letterSpacingPx });
+    if (raw?.characters !== undefined && !(Number.isInteger(raw.characters) && raw.characters >= 1 && raw.characters <= 10000)) problems.push(`${where}.characters: expected a whole number of characters from 1 to 10000`);
+    if (raw?.role !== undefined && !(LABEL_ROLES as readonly unknown[]).includes(raw.role)) problems.push(`${where}.role: expected one of ${LABEL_ROLES.map((r) => `"${r}"`).join(', ')} (glance: read without moving the eyes; look: read when looked at, the default; decorative: not judged)`);
+    labels.push({
+      id: typeof raw?.id === 'string' ? raw.id : `label-${i + 1}`, text: raw?.text, boxPx: box, letterHeightPx: raw?.letterHeightPx, letterSpacingPx: raw?.letterSpacingPx,
+      ...(raw?.role !== undefined ? { role: raw.role } : {}),
+      ...(raw?.characters !== undefined ? { characters: raw.characters } : {}),
+    });
   });
   if (problems.length) throw new InputError(file, `has ${problems.length} problem${problems.length === 1 ? '' : 's'}:\n  - ${problems.join('\n  - ')}`, FIX);
   return labels;

@@ -210,3 +210,35 @@ export function holdsCompleteSet(dir: string, names: readonly string[]): boolean
     return false;
   }
 }
+
+/**
+ * Writes one new file (a labels file for the user to edit): refused when it exists (unless
+ * `replace`), when it is one of the inputs (by device and inode), or under a special file system;
+ * written beside its target and renamed into place, so it is whole or absent.
+ */
+export function writeNewFile(path: string, text: string, inputs: readonly string[], replace: boolean): void {
+  const target = resolve(path);
+  if (existsSync(target)) {
+    const s = statSync(target);
+    const isInput = inputs.some((i) => {
+      try {
+        const t = statSync(i);
+        return t.dev === s.dev && t.ino === s.ino;
+      } catch {
+        return false;
+      }
+    });
+    if (isInput) throw new OutputError(path, 'is one of the inputs', 'Name another file with --out.');
+    if (!s.isFile()) throw new OutputError(path, 'exists and is not a regular file', 'Name another file with --out.');
+    if (!replace) throw new OutputError(path, 'exists already', 'Correct that file, name another with --out, or pass --force to replace it.');
+  }
+  if (!existsSync(dirname(target))) throw new OutputError(path, 'is in a folder that does not exist', 'Create the folder first or name another file with --out.');
+  const staging = join(dirname(target), `.${basename(target)}.eyeproof-${process.pid}.tmp`);
+  try {
+    writeFileSync(staging, text, { flag: 'wx' });
+    renameSync(staging, target);
+  } catch (err) {
+    rmSync(staging, { force: true });
+    throw new OutputError(path, `could not be written (${(err as NodeJS.ErrnoException).code ?? String(err)})`, 'Check the folder is writable and has space.');
+  }
+}

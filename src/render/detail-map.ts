@@ -5,7 +5,6 @@
  */
 import type { SKRSContext2D } from '@napi-rs/canvas';
 import type { LabelVerdict } from '../analysis/labels.js';
-import { READING_RESERVE } from '../analysis/letter-size.js';
 import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
 import { logScale, niceLogTicks, viridisTable } from './colour-scale.js';
 
@@ -65,14 +64,14 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
   for (const level of levels) drawContour(rgba, letter, width, height, level, thickness);
 
   const text = Math.max(12, Math.round(width / 90));
-  const legendHeight = Math.round(text * 8.2);
+  const legendHeight = Math.round(text * (input.labels?.length ? 9.4 : 8.2));
   const { canvas, g } = newCanvas(width, height + legendHeight);
   putRgba(g, rgba, width, height, 0, 0);
   for (const level of levels) {
     const at = contourLabelPoint(letter, width, height, gazePx, level);
     if (at) haloText(g, `${formatPx(level)} px`, at[0] + 4, at[1] - 4, text);
   }
-  if (input.labels) drawLabelBoxes(g, input.labels, text);
+  if (input.labels) drawLabelBoxes(g, input.labels, text, width, height);
   drawGazeMarker(g, gazePx[0] + 0.5, gazePx[1] + 0.5, text * 0.8);
   const pixelLimited = min <= input.frameMinLetterPx * 1.0001;
   const ticks = [...new Set([Number(min.toPrecision(2)), ...niceLogTicks(min * 1.2, max, 7)])];
@@ -139,27 +138,41 @@ interface LegendLayout {
   hasBlindSpot: boolean;
 }
 
-/** Colour of boxes around labels that are too small (told apart by line weight and a tag too, not by colour alone). */
-const TOO_SMALL_COLOUR = '#ff4d8d';
+/** Colour of boxes around labels that fail (told apart by line weight and a tag too, not by colour alone). */
+const FAIL_COLOUR = '#ff4d8d';
 
 /**
- * Label outlines judged on size only, as the map shows size: solid white = at least the reading
- * reserve, dashed = legible but small, thick pink with a tag = too small. Crowding is in the report.
+ * Label outlines showing each label's verdict by its role (the same as the report and the terminal):
+ * solid white = passes (readable), dashed = legible but one limit not met, thick pink with a tag
+ * naming the limit = not legible, dotted grey = decorative. Tags are placed above, below or beside
+ * the box where they collide with no other tag; where none is free the box keeps its outline only.
  */
-function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text: number): void {
+function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text: number, width: number, height: number): void {
+  const placed: [number, number, number, number][] = [];
+  const overlaps = (r: [number, number, number, number]): boolean => placed.some((p) => r[0] < p[0] + p[2] && p[0] < r[0] + r[2] && r[1] < p[1] + p[3] && p[1] < r[1] + r[3]);
   for (const l of labels) {
     const [x, y, w, h] = l.boxPx;
     const pad = 3;
-    const margin = l.fromGaze.sizeMargin;
-    const tooSmall = margin < 1;
-    g.setLineDash(!tooSmall && margin < READING_RESERVE ? [6, 4] : []);
-    g.lineWidth = tooSmall ? 3 : 1.5;
-    g.strokeStyle = tooSmall ? TOO_SMALL_COLOUR : '#ffffff';
+    const failing = l.verdict === 'not legible';
+    g.setLineDash(l.verdict === 'legible' ? [6, 4] : l.verdict === 'not judged' ? [2, 3] : []);
+    g.lineWidth = failing ? 3 : 1.5;
+    g.strokeStyle = failing ? FAIL_COLOUR : l.verdict === 'not judged' ? '#9aa3ad' : '#ffffff';
     g.strokeRect(x - pad, y - pad, w + 2 * pad, h + 2 * pad);
     g.setLineDash([]);
-    if (tooSmall) {
-      const tag = l.fromGaze.limitedBy === 'blind spot' ? '× in the blind spot' : l.whenFixated.sizeMargin < 1 ? '× too small even when looked at' : '× too small here';
-      haloText(g, tag, x - pad, y - pad - 4, text * 0.75, TOO_SMALL_COLOUR);
+    if (l.passes !== false) continue;
+    const judgement = l.role === 'glance' ? l.fromGaze : l.whenFixated;
+    const tag = `${failing ? '×' : '–'} ${judgement.limitedBy}${l.role === 'glance' ? ' from gaze' : ''}`;
+    const size = text * 0.75;
+    g.font = font(size);
+    const tw = g.measureText(tag).width + 4;
+    const th = size * 1.2;
+    const spots: [number, number][] = [[x - pad, y - pad - 4], [x - pad, y + h + pad + th], [x + w + pad + 4, y + th * 0.8], [x - pad - tw - 4, y + th * 0.8]];
+    for (const [tx, ty] of spots) {
+      const rect: [number, number, number, number] = [tx, ty - th, tw, th];
+      if (tx < 0 || ty - th < 0 || tx + tw > width || ty > height || overlaps(rect)) continue;
+      placed.push(rect);
+      haloText(g, tag, tx, ty, size, failing ? FAIL_COLOUR : '#ffffff');
+      break;
     }
   }
 }
@@ -193,7 +206,7 @@ function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
     g.fillStyle = '#e8e8e8';
   }
   const floor = l.pixelLimited ? ` Where the map shows ${formatPx(l.frameMinLetterPx)} px the frame's pixels, not the eye, are the limit.` : '';
-  const boxes = l.hasLabels ? ` Label boxes (size only): solid white = at least ${READING_RESERVE}× the smallest legible letter, dashed = legible but small, thick pink = too small. Crowding between letters is judged in report.json.` : '';
+  const boxes = l.hasLabels ? ` Label boxes show each label's verdict by its role (glance: from the gaze; look: when looked at), judged on size, crowding, contrast and the blind spot: solid white = readable, dashed = legible with a limit not met (tagged), thick pink = not legible (tagged with the limit), dotted = decorative. The colours show size only; crowding cannot be seen in the picture.` : '';
   const blind = l.hasBlindSpot ? ' Hatched: the blind spot of the viewing eye.' : '';
   const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}${blind}${boxes}`;
   g.font = font(l.text * 0.8);

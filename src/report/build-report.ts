@@ -3,7 +3,9 @@ import type { Setup } from '../config/setup.js';
 import type { FrameInfo } from '../io/decode-frame.js';
 import { CYCLES_PER_LETTER, OPTICAL_CYCLES_PER_LETTER, OPTICAL_THRESHOLD_MODULATION, READING_RESERVE } from '../analysis/letter-size.js';
 import type { DerivedNumbers, ProofResult } from '../pipeline.js';
-import type { LabelVerdict, Verdict } from '../analysis/labels.js';
+import { LIMIT_SOURCES, type LabelVerdict, type Verdict } from '../analysis/labels.js';
+import type { FrameScale } from '../pipeline.js';
+import type { FixationResult } from '../proof.js';
 import { NEURAL_CONTRAST_LOG_PER_YEAR, NEURAL_CONTRAST_ONSET_YEARS, neuralAcuityFactor } from '../retina/neural-ageing.js';
 import { CAUTIONS } from './cautions.js';
 
@@ -88,14 +90,34 @@ export function numbersReport(setup: Setup, numbers: DerivedNumbers, acuity: { n
   });
 }
 
-/** Counts of label verdicts, for summaries. */
-export function labelSummary(verdicts: readonly LabelVerdict[], view: 'fromGaze' | 'whenFixated'): Record<Verdict, number> {
-  const counts: Record<Verdict, number> = { readable: 0, legible: 0, 'not legible': 0 };
-  for (const v of verdicts) counts[v[view].verdict]++;
+/** Counts of label verdicts, for summaries: by role (`verdict`), or as seen from the gaze or when looked at. */
+export function labelSummary(verdicts: readonly LabelVerdict[], view: 'verdict' | 'fromGaze' | 'whenFixated'): Record<Verdict, number> {
+  const counts: Record<Verdict, number> = { readable: 0, legible: 0, 'not legible': 0, 'not judged': 0 };
+  for (const v of verdicts) counts[view === 'verdict' ? v.verdict : v[view].verdict]++;
   return counts;
 }
 
-export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[], labelsFile?: string, depthFile?: { file: string; unit: string }): Record<string, unknown> {
+/** The rule in words, for the report and the review material. */
+export const LABEL_RULE = `Each label is judged by its role: glance labels as seen from the gaze without moving the eyes, look labels (the default) when looked at, decorative labels not at all. `
+  + `A label passes when readable: capital height at least ${READING_RESERVE}× the smallest legible letter at its farthest point (Whittaker & Lovie-Kitchin 1993), `
+  + 'mean letter advance at least the critical spacing of crowding (Song, Levi & Pelli 2014, Eq. 14), WCAG 2.2 contrast ratio of the text as it reaches the retina at least 4.5:1 (3:1 for large text), '
+  + 'and not in the blind spot. Legible: the letters can be made out (size at threshold, no crowding) but one of those limits is not met. '
+  + 'Crowding is not drawn in the percept: letters that each look sharp there can still not be read when crowded.';
+
+export interface ProofReportExtras {
+  labelsFile?: string;
+  depthFile?: { file: string; unit: string };
+  frameScale?: FrameScale;
+  fixations?: FixationResult[];
+}
+
+/** The label verdicts in the short form used per fixation. */
+function shortVerdicts(verdicts: readonly LabelVerdict[]): Record<string, unknown>[] {
+  return verdicts.map((v) => ({ id: v.id, role: v.role, verdict: v.verdict, passes: v.passes, limitedBy: (v.role === 'glance' ? v.fromGaze : v.whenFixated).limitedBy, eccentricityDeg: v.fromGaze.eccentricityDeg }));
+}
+
+export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[], extras: ProofReportExtras = {}): Record<string, unknown> {
+  const { labelsFile, depthFile, frameScale, fixations } = extras;
   const base = numbersReport(setup, result.numbers, result.models.acuity);
   if (result.depth) {
     (base.models as ModelEntry[]).push({ stage: 'optics', name: 'depth-of-field', summary: 'extra defocus 1/d − 1/d_gaze per pixel from the depth map, as a Gaussian of σ = blur disk / 4 in quadrature with the PSF at the gaze', source: 'standard optics; Gaussian form our simplification', status: 'proposal' });
@@ -105,19 +127,22 @@ export function proofReport(setup: Setup, result: ProofResult, frame: { file: st
   return {
     reportVersion: base.reportVersion,
     cautions: base.cautions,
-    frame: { file: frame.file, ...frame.info },
+    frame: { file: frame.file, ...frame.info, ...(frameScale ? roundNumbers(frameScale) as object : {}) },
     ...base,
     detailMap: roundNumbers({ smallestLetterPxAtGaze: result.numbers.acuity[0]?.smallestLetterPx, smallestLetterPxMinimum: minLetter }),
     ...(result.depth && depthFile ? { depth: roundNumbers({ ...depthFile, ...result.depth }) } : {}),
     ...(result.labels ? {
       labels: roundNumbers({
         file: labelsFile,
-        rule: `legible: capital height ≥ the smallest legible letter over the whole box and mean letter advance ≥ the critical spacing of crowding (Song, Levi & Pelli 2014, Eq. 14); readable: legible with ${READING_RESERVE}× size (Whittaker & Lovie-Kitchin 1993). fromGaze: without moving the eyes; whenFixated: looking straight at the label`,
+        rule: LABEL_RULE,
+        sources: LIMIT_SOURCES,
+        summary: { ...labelSummary(result.labels, 'verdict'), passing: result.labels.filter((v) => v.passes === true).length, failing: result.labels.filter((v) => v.passes === false).map((v) => v.id) },
         summaryFromGaze: labelSummary(result.labels, 'fromGaze'),
         summaryWhenFixated: labelSummary(result.labels, 'whenFixated'),
         verdicts: result.labels,
       }),
     } : {}),
+    ...(fixations ? { fixations: roundNumbers(fixations.map((f) => ({ ...f, ...(f.labels ? { labels: shortVerdicts(f.labels), summary: labelSummary(f.labels, 'verdict') } : {}) }))) } : {}),
     outputs,
   };
 }

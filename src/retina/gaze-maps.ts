@@ -106,6 +106,7 @@ export function computeGazeMaps(input: GazeMapsInput, into?: GazeMaps): GazeMaps
   const eccScale = ECCENTRICITY_STEPS - 1;
   const offScale = OFF_AXIS_ECC_STEPS - 1;
   const displayPixels = index['display pixels'];
+  const minLetterPx = limits.minLetterPx ?? FRAME_MIN_LETTER_PX;
   const opticalIndex = limits.defocusLimited ? index.defocus : index.optics;
   const retinaIndex = rodDominated ? index['rod vision'] : index.retina;
   for (let i = 0; i < n; i++) {
@@ -160,8 +161,8 @@ export function computeGazeMaps(input: GazeMapsInput, into?: GazeMaps): GazeMaps
     const neuralArcmin = neuralFactor / retinal;
     const opticalArcmin = opticalFactor / optical;
     const eyePx = Math.sqrt(neuralArcmin * neuralArcmin + opticalArcmin * opticalArcmin) / a;
-    if (eyePx < FRAME_MIN_LETTER_PX) {
-      smallestLetterPx[i] = FRAME_MIN_LETTER_PX;
+    if (eyePx < minLetterPx) {
+      smallestLetterPx[i] = minLetterPx;
       letterLimitIndex[i] = displayPixels;
     } else {
       smallestLetterPx[i] = eyePx;
