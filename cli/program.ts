@@ -7,7 +7,8 @@ import { setupJsonSchema } from '../src/config/schema.js';
 import { mergeSetupJson, validateSetup } from '../src/config/validate.js';
 import type { Setup } from '../src/config/setup.js';
 import { MAX_JSON_FILE_BYTES, readInputBytes, readSetupJson } from '../src/io/read-input.js';
-import { BYTES_PER_FRAME_PIXEL, DEFAULT_MAX_FRAME_PIXELS, MAX_FRAME_PIXELS } from '../src/io/decode-frame.js';
+import { BYTES_PER_FRAME_PIXEL, DEFAULT_MAX_FRAME_PIXELS, MAX_FRAME_PIXELS, probeImage } from '../src/io/decode-frame.js';
+import { labelsFromSvg } from '../src/io/read-svg-text.js';
 import { prepareOutputFolder, writeNewFile, writeOutputsAtomically } from '../src/io/write-outputs.js';
 import { basename } from 'node:path';
 import { computeNumbers, sizeSpec } from '../src/pipeline.js';
@@ -109,6 +110,14 @@ function percentOf(text: string): number {
   return value;
 }
 
+/** --cap-height-ratio family=ratio, repeatable: capital height per em by font family. */
+function collectRatios(text: string, previous: Record<string, number>): Record<string, number> {
+  const m = /^(.+)=\s*([\d.]+)$/.exec(text);
+  const ratio = m ? Number(m[2]) : NaN;
+  if (!m || !(ratio > 0.3 && ratio < 1)) throw new InvalidArgumentError('expected family=ratio with a capital height per em from 0.3 to 1, e.g. "Inter=0.727"');
+  return { ...previous, [m[1].trim().toLowerCase()]: ratio };
+}
+
 /** --max-pixels: a whole number of pixels up to what the decoder may open. */
 function pixelCount(text: string): number {
   const value = Number(text);
@@ -141,7 +150,8 @@ export function buildProgram(io: CliIo = processIo): Command {
     .option('-o, --out <folder>', 'output folder: created if missing, replaced as a whole, so it may hold only eyeproof outputs', 'eyeproof-out')
     .option('-q, --quiet', 'no progress on stderr')
     .option('--json', 'print report.json on stdout and nothing else')
-    .option('-l, --labels <file>', 'labels file with the text runs to judge (default: <frame>.labels.json beside the frame, if there is one)')
+    .option('-l, --labels <file>', 'labels file with the text runs to judge, or the frame\'s SVG export (text elements are read) (default: <frame>.labels.json beside the frame, if there is one)')
+    .option('--cap-height-ratio <family=ratio...>', 'capital height per em of a font family in an SVG export (default 0.7; the bundled IBM Plex Sans is measured)', collectRatios, {})
     .option('-d, --depth <file>', 'depth map: a 16-bit greyscale PNG of distances from the eye, same size as the frame (0 = none)')
     .addOption(new Option('--depth-unit <unit>', 'unit of the depth map values').choices(['mm', 'cm', 'm']).default('mm'))
     .option('--no-detect-labels', 'without a labels file, do not look for text runs in the frame (by default they are found and judged)')
@@ -152,12 +162,12 @@ Examples:
   $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
   $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold
   $ eyeproof proof passthrough.png --setup headset-wide --depth passthrough-depth.png --depth-unit mm`)
-    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number; detectLabels: boolean }) => {
+    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number; detectLabels: boolean; capHeightRatio: Record<string, number> }) => {
       const { setup, source } = await resolveSetup(opts);
       const bytes = await readInputBytes(frame, 'the frame');
       const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
       const labelsFile = opts.labels ?? (existsSync(besideFrame) ? besideFrame : undefined);
-      const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file', MAX_JSON_FILE_BYTES)) } : undefined;
+      const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file', MAX_JSON_FILE_BYTES)), capHeightRatios: opts.capHeightRatio } : undefined;
       const depth = opts.depth ? { file: opts.depth, bytes: await readInputBytes(opts.depth, 'the depth map'), unit: opts.depthUnit } : undefined;
       const inputs = [frame, opts.setup, opts.viewer, opts.referenceViewer, labelsFile, opts.depth].filter((f): f is string => Boolean(f) && existsSync(f as string));
       await prepareOutputFolder(opts.out, inputs, PROOF_OUTPUT_NAMES);
@@ -181,19 +191,32 @@ Examples:
   program.command('labels <frame>')
     .description('find the text runs in a frame and write them as a labels file to correct (boxes and capital heights; text is not read back)')
     .option('-o, --out <file>', 'labels file to write (default: <frame>.labels.json beside the frame); never overwritten without --force')
+    .option('--from-svg <file>', 'read the labels from the frame\'s SVG export (text elements) instead of finding them in the pixels')
+    .option('--cap-height-ratio <family=ratio...>', 'capital height per em of a font family in the SVG (default 0.7; the bundled IBM Plex Sans is measured)', collectRatios, {})
     .option('--force', 'replace the labels file if it exists')
     .option('--max-pixels <count>', 'largest frame to read, in pixels', (t) => pixelCount(t))
     .addHelpText('after', `
 Example:
   $ eyeproof labels export/cluster.png            # writes export/cluster.labels.json
   $ eyeproof proof export/cluster.png             # uses it once corrected`)
-    .action(async (frame: string, opts: { out?: string; force?: boolean; maxPixels?: number }) => {
+    .action(async (frame: string, opts: { out?: string; force?: boolean; maxPixels?: number; fromSvg?: string; capHeightRatio: Record<string, number> }) => {
       const bytes = await readInputBytes(frame, 'the frame');
       const out = opts.out ?? `${frame.replace(/\.(png|jpe?g|webp)$/i, '')}.labels.json`;
-      const { runs, width, height } = await detectLabelsInFrame(bytes, frame, opts.maxPixels);
-      const json = { frame: basename(frame), found: `eyeproof labels: ${runs.length} text runs, ${width}×${height} px; correct the boxes and capital heights, give each an id, its text and a role (glance, look, decorative)`, labels: runs.map((r) => ({ id: r.id, text: r.text, characters: r.characters, boxPx: r.boxPx, letterHeightPx: r.letterHeightPx, confidence: r.confidence })) };
-      writeNewFile(out, `${JSON.stringify(json, null, 2)}\n`, [frame], Boolean(opts.force));
-      io.err(`eyeproof: found ${runs.length} text runs; wrote ${out}\n`);
+      let json: Record<string, unknown>;
+      let count: number;
+      if (opts.fromSvg) {
+        const probe = await probeImage(bytes, frame);
+        const svg = new TextDecoder().decode(await readInputBytes(opts.fromSvg, 'the SVG export', MAX_JSON_FILE_BYTES));
+        const labels = labelsFromSvg(svg, opts.fromSvg, probe.width, probe.height, { capHeightRatios: opts.capHeightRatio });
+        count = labels.length;
+        json = { frame: basename(frame), found: `eyeproof labels: ${count} text elements of ${basename(opts.fromSvg)}; capital heights ${labels.every((l) => l.measured) ? 'measured from the bundled face' : 'estimated from the font size where the face is not bundled'}; give each a role (glance, look, decorative)`, labels: labels.map(({ measured: _m, ...l }) => l) };
+      } else {
+        const { runs, width, height } = await detectLabelsInFrame(bytes, frame, opts.maxPixels);
+        count = runs.length;
+        json = { frame: basename(frame), found: `eyeproof labels: ${runs.length} text runs, ${width}×${height} px; correct the boxes and capital heights, give each an id, its text and a role (glance, look, decorative)`, labels: runs.map((r) => ({ id: r.id, text: r.text, characters: r.characters, boxPx: r.boxPx, letterHeightPx: r.letterHeightPx, confidence: r.confidence })) };
+      }
+      writeNewFile(out, `${JSON.stringify(json, null, 2)}\n`, [frame, ...(opts.fromSvg ? [opts.fromSvg] : [])], Boolean(opts.force));
+      io.err(`eyeproof: ${opts.fromSvg ? 'read' : 'found'} ${count} text runs; wrote ${out}\n`);
     });
 
   addSetupOptions(program.command('numbers'))

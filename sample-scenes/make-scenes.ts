@@ -27,8 +27,13 @@ interface Label {
  */
 const GLANCE_LABELS = new Set(['heading-value', 'speed-value', 'alarm', 'banner', 'clock', 'aisle', 'timer']);
 
+/** XML text with &, < and > escaped. */
+const xml = (t: string): string => t.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+
 class Scene {
   readonly labels: Label[] = [];
+  /** The text layer as an SVG export would carry it (positions at the baseline, font size in px). */
+  readonly svgTexts: string[] = [];
   readonly g: SKRSContext2D;
   readonly canvas;
   constructor(readonly name: string, readonly width: number, readonly height: number) {
@@ -47,6 +52,8 @@ class Scene {
     const m = g.measureText(text);
     const baseline = y + Math.ceil(m.actualBoundingBoxAscent);
     g.fillText(text, x, baseline);
+    const role = GLANCE_LABELS.has(id) ? ' data-role="glance"' : '';
+    this.svgTexts.push(`  <text id="${xml(id)}"${role} x="${x}" y="${baseline}" font-family="IBM Plex Sans" font-size="${sizePx}" font-weight="${bold ? 600 : 400}" fill="${colour}">${xml(text)}</text>`);
     const widthPx = Math.ceil(m.width);
     const heightPx = Math.ceil(m.actualBoundingBoxAscent + m.actualBoundingBoxDescent);
     // Letter spacing as the mean advance minus the mean glyph width is not exposed; use the gap of "II".
@@ -70,6 +77,8 @@ class Scene {
     writeFileSync(join(here, `${this.name}.png`), png);
     const labels = this.labels.map((l) => (GLANCE_LABELS.has(l.id) ? { ...l, role: 'glance' as const } : l));
     writeFileSync(join(here, `${this.name}.labels.json`), `${JSON.stringify({ frame: `${this.name}.png`, labels }, null, 2)}\n`);
+    // The text layer as a design tool exports it, for the SVG import (shapes are left out).
+    writeFileSync(join(here, `${this.name}.text.svg`), `<svg xmlns="http://www.w3.org/2000/svg" width="${this.width}" height="${this.height}" viewBox="0 0 ${this.width} ${this.height}">\n${this.svgTexts.join('\n')}\n</svg>\n`);
   }
 }
 

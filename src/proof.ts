@@ -17,6 +17,7 @@ import { FRAME_MIN_LETTER_PX, READING_RESERVE } from './analysis/letter-size.js'
 import { AUDIENCE_SOURCES } from './analysis/audience.js';
 import { renderAudienceChart, renderReach } from './render/answers.js';
 import { parseLabels } from './io/read-labels.js';
+import { labelsFromSvg } from './io/read-svg-text.js';
 import { decodeDepthMap, type DepthUnit } from './io/decode-depth.js';
 import { CAUTION_SHORT } from './report/cautions.js';
 import { resolveGazeSpec, type ResolvedGaze } from './geometry/gaze-spec.js';
@@ -51,6 +52,15 @@ export function setupCaption(setup: Setup, result: ProofResult): string {
 export interface LabelsInput {
   file: string;
   text: string;
+  /** For an SVG export: capital height per em by font family (lower case), for faces not bundled. */
+  capHeightRatios?: Record<string, number>;
+}
+
+/** Labels from a labels file, or from the text of an SVG export (by the file's extension). */
+export function readLabelsInput(input: LabelsInput, widthPx: number, heightPx: number): Label[] {
+  return /\.svg$/i.test(input.file)
+    ? labelsFromSvg(input.text, input.file, widthPx, heightPx, input.capHeightRatios ? { capHeightRatios: input.capHeightRatios } : {}).map(({ measured: _m, ...l }) => l)
+    : parseLabels(input.text, input.file, widthPx, heightPx);
 }
 
 export interface DepthInput {
@@ -104,7 +114,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   const scale = frameScaleFor(setup, probe.width, probe.height);
   if (scale.note) onNote(scale.note);
   const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb, maxPixels);
-  let labels: Label[] | undefined = labelsInput ? parseLabels(labelsInput.text, labelsInput.file, image.width, image.height) : undefined;
+  let labels: Label[] | undefined = labelsInput ? readLabelsInput(labelsInput, image.width, image.height) : undefined;
   let detected: DetectedRun[] | undefined;
   if (!labels && inputs.detectLabels) {
     onStage('finding text in the frame');
@@ -138,7 +148,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   });
   const compare = renderCompare({
     width, height, frameRgba, perceptRgba, projection: projectionFor(setup.display, width, height, setup.frame.placementPx),
-    gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot,
+    gazePx: result.numbers.gazePx, caption, blindSpot: result.numbers.blindSpot, ...(result.labels ? { labels: result.labels } : {}),
     perceptTitle: setup.percept.mode === 'same-display'
       ? `What this viewer resolves, for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer on this screen (gaze fixed at the ring)`
       : 'What this viewer resolves, on the retina (gaze fixed at the ring)', caution: `eyeproof · rings at 2°, 5°, 10°, 20°, 30° from the gaze · ${CAUTION_SHORT}`,

@@ -231,4 +231,19 @@ describe('eyeproof command', () => {
     const none = await run(['proof', f, '--setup', join(root, 'sample-scenes/picker-headset.setup.json'), '--no-detect-labels', '--out', join(sub, 'out2')]);
     expect(none.stderr).toMatch(/no labels, so no verdicts/);
   });
+
+  test('an SVG export gives the labels: proof --labels frame.svg, and labels --from-svg writes them (SVG 1.1 text elements)', async () => {
+    const sub = join(dir, 'svg');
+    mkdirSync(sub);
+    const f = join(sub, 'picker.png');
+    copyFileSync(join(root, 'sample-scenes/picker-headset.png'), f);
+    const svg = join(root, 'sample-scenes/picker-headset.text.svg');
+    const r = await run(['proof', f, '--setup', join(root, 'sample-scenes/picker-headset.setup.json'), '--labels', svg, '--out', join(sub, 'out')]);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(readFileSync(join(sub, 'out', 'report.json'), 'utf8'));
+    expect(report.labels.verdicts.map((v: { id: string }) => v.id)).toContain('aisle');
+    const w = await run(['labels', f, '--from-svg', svg]);
+    expect(w.code).toBe(0);
+    expect(JSON.parse(readFileSync(join(sub, 'picker.labels.json'), 'utf8')).labels.length).toBe(9);
+  });
 });

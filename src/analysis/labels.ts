@@ -307,7 +307,10 @@ function fixFor(label: Label, g: LabelGeometry, judgement: Judgement, place: Pla
     const neededPx = judgement.criticalSpacingArcmin / place.arcminPerPx;
     const nowPx = label.boxPx[2] / g.characters;
     fix.letterAdvance = { ...designLength(Math.ceil(neededPx), place.arcminPerPx, maps.units), addPerGapPx: Math.ceil(neededPx - nowPx) };
-    words.push(`letters ${fix.letterAdvance.px} px apart centre to centre, ${fix.letterAdvance.addPerGapPx} px more space between letters (crowding)`);
+    const times = neededPx / nowPx;
+    words.push(times > 2
+      ? `letters ${times.toFixed(1)}× as far apart to escape crowding (${fix.letterAdvance.px} px centre to centre): fewer characters, or read it with a look rather than a glance`
+      : `letters ${fix.letterAdvance.px} px apart centre to centre, ${fix.letterAdvance.addPerGapPx} px more space between letters (crowding)`);
   }
   const contrast = judgement.limits.find((l) => l.name === 'contrast')!;
   if (!contrast.passes) {

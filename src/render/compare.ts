@@ -1,11 +1,13 @@
 /**
- * compare.png: the frame as displayed and the viewer's percept side by side, with eccentricity rings
+ * compare.png: the frame as displayed (with the label verdicts outlined) and the viewer's percept side by side, with eccentricity rings
  * around the gaze, the gaze marker and a caption of the setup and viewer.
  */
 import type { SKRSContext2D } from '@napi-rs/canvas';
 import type { Projection } from '../geometry/projection.js';
 import { isInsideFrame, pixelAtFieldPoint } from '../geometry/view-map.js';
 import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
+import { drawLabelBoxes } from './detail-map.js';
+import type { LabelVerdict } from '../analysis/labels.js';
 
 /** Eccentricities marked by rings, deg. */
 export const RING_ECCENTRICITIES_DEG = [2, 5, 10, 20, 30] as const;
@@ -22,6 +24,8 @@ export interface CompareInput {
   caution: string;
   /** Title over the percept, saying what it shows. */
   perceptTitle: string;
+  /** Label verdicts, outlined on the frame as on the detail map. */
+  labels?: readonly LabelVerdict[];
   /** The viewing eye's blind spot, outlined on the percept. */
   blindSpot?: { eye: string; centreFieldDeg: [number, number]; widthDeg: number; heightDeg: number };
 }
@@ -46,6 +50,7 @@ export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; w
     drawGazeMarker(g, offsetX + gazePx[0] + 0.5, header + gazePx[1] + 0.5, text * 0.8);
     g.restore();
   }
+  if (input.labels) drawLabelBoxes(g, input.labels, text, width, height, 0, header);
   g.fillStyle = '#f0f0f0';
   g.font = font(text * 1.05, true);
   g.fillText('Frame as displayed', text * 0.6, text * 1.5);

@@ -147,11 +147,13 @@ const FAIL_COLOUR = '#ff4d8d';
  * naming the limit = not legible, dotted grey = decorative. Tags are placed above, below or beside
  * the box where they collide with no other tag; where none is free the box keeps its outline only.
  */
-function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text: number, width: number, height: number): void {
+export function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text: number, width: number, height: number, offsetX = 0, offsetY = 0): void {
   const placed: [number, number, number, number][] = [];
   const overlaps = (r: [number, number, number, number]): boolean => placed.some((p) => r[0] < p[0] + p[2] && p[0] < r[0] + r[2] && r[1] < p[1] + p[3] && p[1] < r[1] + r[3]);
   for (const l of labels) {
-    const [x, y, w, h] = l.boxPx;
+    const [bx, by, w, h] = l.boxPx;
+    const x = bx + offsetX;
+    const y = by + offsetY;
     const pad = 3;
     const failing = l.verdict === 'not legible';
     g.setLineDash(l.verdict === 'legible' ? [6, 4] : l.verdict === 'not judged' ? [2, 3] : []);
@@ -169,7 +171,7 @@ function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[], text:
     const spots: [number, number][] = [[x - pad, y - pad - 4], [x - pad, y + h + pad + th], [x + w + pad + 4, y + th * 0.8], [x - pad - tw - 4, y + th * 0.8]];
     for (const [tx, ty] of spots) {
       const rect: [number, number, number, number] = [tx, ty - th, tw, th];
-      if (tx < 0 || ty - th < 0 || tx + tw > width || ty > height || overlaps(rect)) continue;
+      if (tx < offsetX || ty - th < offsetY || tx + tw > offsetX + width || ty > offsetY + height || overlaps(rect)) continue;
       placed.push(rect);
       haloText(g, tag, tx, ty, size, failing ? FAIL_COLOUR : '#ffffff');
       break;
