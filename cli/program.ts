@@ -21,6 +21,7 @@ import { GAZE_FORMS, isPlainPixels } from '../src/geometry/gaze-spec.js';
 import { formatLabelSummary } from './format-labels.js';
 import { CAUTION_SHORT } from '../src/report/cautions.js';
 import { EXIT } from './exit-codes.js';
+import { EYEPROOF_VERSION } from '../src/version.js';
 import { formatNumbersTable } from './format-numbers.js';
 
 interface SetupOptions {
@@ -140,7 +141,7 @@ function addSetupOptions(cmd: Command): Command {
 export function buildProgram(io: CliIo = processIo): Command {
   const program = new Command('eyeproof')
     .description('Shows what a viewer\'s retina receives and resolves when looking at a rendered interface frame.\n' + CAUTION_SHORT)
-    .version('0.1.0')
+    .version(EYEPROOF_VERSION)
     .showHelpAfterError()
     .configureOutput({ writeOut: (t) => io.out(t), writeErr: (t) => io.err(t) })
     .exitOverride();

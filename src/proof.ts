@@ -2,6 +2,7 @@
  * The main job as one call for every front end: frame bytes and a setup in, output files and the
  * report out. No argv, exit codes or HTTP here.
  */
+import sharp from 'sharp';
 import type { Setup } from './config/setup.js';
 import { ConfigError, InputError } from './errors.js';
 import { checkFramePixels, DEFAULT_MAX_FRAME_PIXELS, probeImage, decodeFrame } from './io/decode-frame.js';
@@ -12,19 +13,25 @@ import { renderCompare } from './render/compare.js';
 import { renderDetailMap } from './render/detail-map.js';
 import { renderPsfPicture } from './render/psf-picture.js';
 import { projectionFor } from './geometry/projection.js';
-import { proofReport } from './report/build-report.js';
+import { LABEL_RULE, proofReport } from './report/build-report.js';
 import { FRAME_MIN_LETTER_PX, READING_RESERVE } from './analysis/letter-size.js';
 import { AUDIENCE_SOURCES } from './analysis/audience.js';
 import { renderAudienceChart, renderReach } from './render/answers.js';
 import { parseLabels } from './io/read-labels.js';
 import { labelsFromSvg } from './io/read-svg-text.js';
 import { decodeDepthMap, type DepthUnit } from './io/decode-depth.js';
-import { CAUTION_SHORT } from './report/cautions.js';
+import { CAUTION_SHORT, CAUTIONS } from './report/cautions.js';
+import { renderReviewPage, type ReviewInput } from './render/review-page.js';
+import { basename } from 'node:path';
+import { EYEPROOF_VERSION } from './version.js';
 import { resolveGazeSpec, type ResolvedGaze } from './geometry/gaze-spec.js';
 import type { Label, LabelVerdict } from './analysis/labels.js';
 import { detectTextRuns, type DetectedRun } from './analysis/detect-text.js';
 
-export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'reach.png', 'audience.png', 'psf.png', 'report.json'] as const;
+export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'compare-slide.png', 'reach.png', 'audience.png', 'psf.png', 'report.json', 'review.html'] as const;
+
+/** Widest slide image, px (a 1080p slide). */
+export const SLIDE_WIDTH_PX = 1920;
 
 export interface ProofOutputs {
   files: OutputFile[];
@@ -143,7 +150,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   const perceptRgba = linearToRgba8(result.percept);
   const percept = await encodeRgba8Png(perceptRgba, width, height);
   const detail = renderDetailMap({
-    width, height, frameRgba, smallestLetterPx: result.smallestLetterPx, gazePx: result.numbers.gazePx,
+    width, height, frameRgba, smallestLetterPx: result.smallestLetterPx, arcminPerPx: result.viewMap.arcminPerPx, gazePx: result.numbers.gazePx,
     arcminPerPxAtGaze: result.numbers.display.arcminPerFramePxAtGaze, frameMinLetterPx: prepared.model.limits.minLetterPx ?? FRAME_MIN_LETTER_PX, labels: result.labels, title: `Smallest legible letter height — ${caption.split(' · ')[1] ?? ''}`,
   });
   const compare = renderCompare({
@@ -174,14 +181,38 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
     labelsFile: labelsInput?.file ?? (detected ? '(found in the frame: eyeproof labels)' : undefined), ...(depthInput ? { depthFile: { file: depthInput.file, unit: depthInput.unit } } : {}), frameScale: scale,
     ...(fixationResults ? { fixations: fixationResults } : {}),
   });
+  const comparePng = await encodeRgba8Png(compare.rgba, compare.width, compare.height);
+  const detailPng = await encodeRgba8Png(detail.rgba, detail.width, detail.height);
+  const reachPng = await encodeRgba8Png(reach.rgba, reach.width, reach.height);
+  const audiencePng = await encodeRgba8Png(audienceChart.rgba, audienceChart.width, audienceChart.height);
+  const slideHeight = (p: { width: number; height: number }): number => Math.round((p.height * Math.min(SLIDE_WIDTH_PX, p.width)) / p.width);
+  const review = renderReviewPage({
+    title: `eyeproof review — ${basename(frameFile)}`,
+    caption,
+    frame: { png: await encodeRgba8Png(frameRgba, width, height), width, height },
+    percept: { png: percept, width, height },
+    perceptTitle: setup.percept.mode === 'same-display' ? `what this viewer resolves, shown for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer` : 'what this viewer resolves, on the retina',
+    detailMap: { png: await slideSized(detail), width: Math.min(SLIDE_WIDTH_PX, detail.width), height: slideHeight(detail) },
+    reach: { png: await slideSized(reach), width: Math.min(SLIDE_WIDTH_PX, reach.width), height: slideHeight(reach) },
+    audience: { png: audiencePng, width: audienceChart.width, height: audienceChart.height },
+    compare: { png: await slideSized(compare), width: Math.min(SLIDE_WIDTH_PX, compare.width), height: slideHeight(compare) },
+    ...(result.labels ? reviewLabels(result.labels) : {}),
+    ...(fixationResults && fixationResults.length > 1 ? { fixations: fixationResults.map((f) => ({ given: f.given, gazePx: f.gazePx, summary: f.labels ? summaryLine(f.labels) : '' })) } : {}),
+    facts: reviewFacts(setup, result),
+    models: ((report.models ?? []) as { stage: string; name: string; source: string }[]).map((m) => ({ stage: m.stage, name: m.name, source: m.source })),
+    cautions: CAUTIONS,
+    generatedBy: `eyeproof ${EYEPROOF_VERSION} · ${basename(frameFile)} · ${setupSource}`,
+  });
   const files: OutputFile[] = [
     { name: 'percept.png', bytes: percept },
-    { name: 'detail-map.png', bytes: await encodeRgba8Png(detail.rgba, detail.width, detail.height) },
-    { name: 'compare.png', bytes: await encodeRgba8Png(compare.rgba, compare.width, compare.height) },
-    { name: 'reach.png', bytes: await encodeRgba8Png(reach.rgba, reach.width, reach.height) },
-    { name: 'audience.png', bytes: await encodeRgba8Png(audienceChart.rgba, audienceChart.width, audienceChart.height) },
+    { name: 'detail-map.png', bytes: detailPng },
+    { name: 'compare.png', bytes: comparePng },
+    { name: 'compare-slide.png', bytes: await slideSized(compare) },
+    { name: 'reach.png', bytes: reachPng },
+    { name: 'audience.png', bytes: audiencePng },
     { name: 'psf.png', bytes: await encodeRgba8Png(psf.rgba, psf.width, psf.height) },
     { name: 'report.json', bytes: `${JSON.stringify(report, null, 2)}\n` },
+    { name: 'review.html', bytes: review },
   ];
   return { files, report, result, ...(fixationResults ? { fixations: fixationResults } : {}) };
 }
@@ -192,4 +223,56 @@ export async function detectLabelsInFrame(bytes: Uint8Array, file: string, maxPi
   checkFramePixels(probe.width, probe.height, file, maxPixels);
   const { image } = await decodeFrame(bytes, file, [0, 0, 0], maxPixels);
   return { runs: detectTextRuns(linearToRgba8(image), image.width, image.height), width: image.width, height: image.height };
+}
+
+/** A picture scaled down (never up) to at most SLIDE_WIDTH_PX wide, for slides. */
+async function slideSized(picture: { rgba: Uint8ClampedArray; width: number; height: number }): Promise<Uint8Array> {
+  const width = Math.min(SLIDE_WIDTH_PX, picture.width);
+  const png = await sharp(Buffer.from(picture.rgba.buffer, picture.rgba.byteOffset, picture.rgba.byteLength), { raw: { width: picture.width, height: picture.height, channels: 4 } })
+    .resize({ width, kernel: 'lanczos3' }).removeAlpha().png({ compressionLevel: 6 }).toBuffer();
+  return new Uint8Array(png);
+}
+
+/** One line of verdict counts. */
+function summaryLine(verdicts: readonly LabelVerdict[]): string {
+  const c = { readable: 0, legible: 0, 'not legible': 0, 'not judged': 0 };
+  for (const v of verdicts) c[v.verdict]++;
+  return `${c.readable} readable, ${c.legible} legible, ${c['not legible']} not legible${c['not judged'] ? `, ${c['not judged']} decorative` : ''}`;
+}
+
+/** The label table of the review page: the same verdicts as the report, worst first. */
+function reviewLabels(verdicts: readonly LabelVerdict[]): Pick<ReviewInput, 'labels' | 'labelRule' | 'labelSummary'> {
+  const order = { 'not legible': 0, legible: 1, readable: 2, 'not judged': 3 } as const;
+  const pct = (v: number): string => `${Math.round(100 * v)} %`;
+  return {
+    labelSummary: `${verdicts.length} labels, each judged by its role: ${summaryLine(verdicts)}.`,
+    labelRule: LABEL_RULE,
+    labels: [...verdicts].sort((a, b) => order[a.verdict] - order[b.verdict]).map((v) => {
+      const j = v.role === 'glance' ? v.fromGaze : v.whenFixated;
+      return {
+        id: v.id, text: v.text, role: v.role, verdict: v.verdict,
+        limitedBy: v.role === 'decorative' ? '' : j.limitedBy === 'size' ? `size (${j.sizeLimitedBy})` : j.limitedBy,
+        margins: v.role === 'decorative' ? '' : j.limits.map((l) => `${l.name} ${l.margin.toFixed(2)}`).join(', '),
+        fix: v.fix?.summary ?? '',
+        audience: v.audience ? `${pct(v.audience.uncorrected)} without glasses, ${pct(v.audience.corrected)} with distance glasses` : '',
+      };
+    }),
+  };
+}
+
+/** Setup and viewer facts for the review page. */
+function reviewFacts(setup: Setup, result: ProofResult): [string, string][] {
+  const n = result.numbers;
+  const d = setup.display;
+  const v = setup.viewer;
+  return [
+    ['display', d.kind === 'screen' ? `${setup.presetNames.display ?? 'custom'}: ${d.resolutionPx.join('×')} px, ${d.widthMm.toFixed(0)} × ${d.heightMm.toFixed(0)} mm at ${d.viewingDistanceMm} mm` : `${setup.presetNames.display ?? 'custom'}: headset ${d.fieldOfViewDeg.join('° × ')}°, ${d.resolutionPx.join('×')} px per eye, image at ${d.focalDistanceM.toFixed(2)} m`],
+    ['pixels per degree at the gaze', `${n.display.pixelsPerDegreeAtGaze.toFixed(1)} (display), ${n.display.framePixelsPerDegreeAtGaze.toFixed(1)} (frame)`],
+    ['viewer', `${setup.presetNames.viewer ?? 'custom'}: ${v.ageYears} years, ${v.eyes === 'both' ? 'both eyes' : `${v.eyes} eye`}, refraction ${v.refraction.sphereD.toFixed(2)} / ${v.refraction.cylinderD.toFixed(2)} × ${v.refraction.axisDeg}°${v.glasses === 'display' ? ', glasses for the display' : ''}`],
+    ['gaze', `${n.gazePx.join(', ')} px of the frame`],
+    ['light', `${n.light.adaptingLuminanceCdM2.toFixed(1)} cd/m² (${n.light.adaptingLuminanceFrom}), ${n.light.regime}`],
+    ['eye', `pupil ${n.eye.pupilDiameterMm.toFixed(1)} mm, defocus ${n.eye.defocusD.toFixed(2)} D, accommodation ${n.eye.accommodationAmplitudeD.toFixed(1)} D, smallest letter at the gaze ${n.eye.smallestLetterArcminAtGaze.toFixed(1)}′`],
+    ['optics', `MTF ${n.optics.mtfAt10Cpd.toFixed(2)} at 10 cpd, ${n.optics.mtfAt30Cpd.toFixed(2)} at 30 cpd; Strehl ${n.optics.strehlRatio.toFixed(3)}; ${(100 * n.optics.scatteredFraction1To100Deg).toFixed(1)} % stray light beyond 1°`],
+    ['percept', setup.percept.mode === 'same-display' ? `shown on this display for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer` : 'the image on the retina'],
+  ];
 }

@@ -35,7 +35,7 @@ describe('eyeproof command', () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
     expect(r.stderr).toMatch(/optics/);
-    expect(readdirSync(out).sort()).toEqual(['audience.png', 'compare.png', 'detail-map.png', 'percept.png', 'psf.png', 'reach.png', 'report.json']);
+    expect(readdirSync(out).sort()).toEqual(['audience.png', 'compare-slide.png', 'compare.png', 'detail-map.png', 'percept.png', 'psf.png', 'reach.png', 'report.json', 'review.html']);
     expect(r.stderr).toMatch(/note: the 640×360 px frame is scaled to fill the 2560×1440 px display: 0\.250 frame px per display px/);
     const report = JSON.parse(readFileSync(join(out, 'report.json'), 'utf8'));
     expect(report.cautions.join(' ')).toMatch(/not a medical device/);

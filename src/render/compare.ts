@@ -110,7 +110,14 @@ function drawRings(g: SKRSContext2D, projection: Projection, gaze: [number, numb
       g.stroke();
       g.setLineDash([]);
     }
-    const at = pixelAtFieldPoint(projection, gaze, e, 45);
-    if (isInsideFrame(projection, at)) haloText(g, `${e}°`, ox + at[0] + 3, oy + at[1] - 3, text * 0.9);
+    // The label where the ring is inside the frame, trying the diagonals first, then any direction.
+    const margin = text * 0.8;
+    const inside = (p: [number, number] | undefined): p is [number, number] => isInsideFrame(projection, p) && p[0] > margin && p[1] > margin && p[0] < projection.widthPx - 3 * margin && p[1] < projection.heightPx - margin;
+    for (const m of [45, 135, 315, 225, ...Array.from({ length: 72 }, (_, k) => k * 5)]) {
+      const at = pixelAtFieldPoint(projection, gaze, e, m);
+      if (!inside(at)) continue;
+      haloText(g, `${e}°`, ox + at[0] + 3, oy + at[1] - 3, text * 0.9);
+      break;
+    }
   }
 }

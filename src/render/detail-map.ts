@@ -1,5 +1,5 @@
 /**
- * detail-map.png: the smallest legible letter height (frame px) at every place, on a log viridis scale
+ * detail-map.png: the smallest legible letter height at every place, on a fixed log viridis scale in arcmin
  * over a faint copy of the frame, with labelled contour lines, the gaze marker and a legend in px
  * and arcmin.
  */
@@ -11,9 +11,11 @@ import { logScale, niceLogTicks, viridisTable } from './colour-scale.js';
 export interface DetailMapInput {
   width: number;
   height: number;
-  /** The frame as 8-bit sRGB RGBA, shown faintly under the map. */
+  /** The frame as 8-bit sRGB RGBA, shown under the map. */
   frameRgba: Uint8ClampedArray;
   smallestLetterPx: Float32Array;
+  /** Angular size of each frame pixel, arcmin: the map's colours are in arcmin, the same for every run. */
+  arcminPerPx: Float32Array;
   gazePx: [number, number];
   arcminPerPxAtGaze: number;
   /** The frame's own smallest letter (px); where the map sits at it, the pixels and not the eye are the limit. */
@@ -23,29 +25,35 @@ export interface DetailMapInput {
   title: string;
 }
 
+/**
+ * The map's fixed colour scale: capital heights from 4′ (logMAR −0.1, the best young fovea) to 240′
+ * (4°, far periphery), logarithmic, so that one colour means one angular size in every run and two
+ * viewers' maps can be compared side by side. Contours at fixed heights.
+ */
+export const DETAIL_SCALE_ARCMIN: readonly [number, number] = [4, 240];
+export const DETAIL_CONTOURS_ARCMIN = [5, 10, 20, 40, 80, 160] as const;
+
 /** Share of the frame's grey shown under the colour, so the layout stays recognisable. */
-const FRAME_UNDERLAY = 0.2;
+const FRAME_UNDERLAY = 0.35;
 
 export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArray; width: number; height: number } {
-  const { smallestLetterPx: letter, gazePx, width, height, frameRgba } = input;
+  const { smallestLetterPx: letter, arcminPerPx, gazePx, width, height, frameRgba } = input;
   const n = width * height;
-  let min = Infinity;
-  let max = 0;
+  // The map in arcmin (infinite in the blind spot).
+  const arcmin = new Float32Array(n);
+  let minPx = Infinity;
   for (let i = 0; i < n; i++) {
-    // Infinite values mark the blind spot, which has no letter size at all.
-    if (!Number.isFinite(letter[i])) continue;
-    if (letter[i] < min) min = letter[i];
-    if (letter[i] > max) max = letter[i];
+    arcmin[i] = letter[i] * arcminPerPx[i];
+    if (Number.isFinite(letter[i]) && letter[i] < minPx) minPx = letter[i];
   }
-  if (!Number.isFinite(min)) min = max = 1;
   const hasBlindSpot = letter.some((v) => !Number.isFinite(v));
-  min = Math.max(0.5, min);
-  max = Math.max(min * 2, max);
-  const scale = logScale(min, max);
+  const scale = logScale(DETAIL_SCALE_ARCMIN[0], DETAIL_SCALE_ARCMIN[1]);
   const lut = viridisTable();
   const rgba = new Uint8ClampedArray(n * 4);
+  const luma = new Float32Array(n);
   for (let i = 0; i < n; i++) {
     const grey = (frameRgba[i * 4] + frameRgba[i * 4 + 1] + frameRgba[i * 4 + 2]) / 3;
+    luma[i] = grey;
     if (!Number.isFinite(letter[i])) {
       // Blind spot: dark diagonal hatching, nothing is seen there.
       const x = i % width;
@@ -55,32 +63,61 @@ export function renderDetailMap(input: DetailMapInput): { rgba: Uint8ClampedArra
       rgba[i * 4 + 3] = 255;
       continue;
     }
-    const c = Math.round(scale(letter[i]) * 255) * 3;
+    const c = Math.round(scale(arcmin[i]) * 255) * 3;
     for (let k = 0; k < 3; k++) rgba[i * 4 + k] = (1 - FRAME_UNDERLAY) * lut[c + k] + FRAME_UNDERLAY * grey;
     rgba[i * 4 + 3] = 255;
   }
-  const levels = niceLogTicks(min * 1.15, max / 1.1, 6);
   const thickness = Math.max(1, Math.round(width / 1200));
-  for (const level of levels) drawContour(rgba, letter, width, height, level, thickness);
+  for (const level of DETAIL_CONTOURS_ARCMIN) drawContour(rgba, arcmin, width, height, level, thickness);
 
   const text = Math.max(12, Math.round(width / 90));
   const legendHeight = Math.round(text * (input.labels?.length ? 9.4 : 8.2));
   const { canvas, g } = newCanvas(width, height + legendHeight);
   putRgba(g, rgba, width, height, 0, 0);
-  for (const level of levels) {
-    const at = contourLabelPoint(letter, width, height, gazePx, level);
-    if (at) haloText(g, `${formatPx(level)} px`, at[0] + 4, at[1] - 4, text);
+  // Contour labels where the frame under them is emptiest, never on one another.
+  const placed: [number, number, number, number][] = [];
+  g.font = font(text, true);
+  for (const level of DETAIL_CONTOURS_ARCMIN) {
+    const tag = `${level}′ · ${formatPx(level / input.arcminPerPxAtGaze)} px`;
+    const w = g.measureText(tag).width + 8;
+    const h = text * 1.3;
+    let best: { x: number; y: number; busy: number } | undefined;
+    for (const [x, y] of contourCrossings(arcmin, width, height, gazePx, level)) {
+      const rect: [number, number, number, number] = [x + 4, y - h, w, h];
+      if (rect[0] + w > width || rect[1] < 0 || placed.some((p) => rect[0] < p[0] + p[2] && p[0] < rect[0] + rect[2] && rect[1] < p[1] + p[3] && p[1] < rect[1] + rect[3])) continue;
+      const busy = busyness(luma, width, rect);
+      if (!best || busy < best.busy) best = { x, y, busy };
+    }
+    if (!best) continue;
+    placed.push([best.x + 4, best.y - h, w, h]);
+    haloText(g, tag, best.x + 8, best.y - text * 0.3, text);
   }
   if (input.labels) drawLabelBoxes(g, input.labels, text, width, height);
   drawGazeMarker(g, gazePx[0] + 0.5, gazePx[1] + 0.5, text * 0.8);
-  const pixelLimited = min <= input.frameMinLetterPx * 1.0001;
-  const ticks = [...new Set([Number(min.toPrecision(2)), ...niceLogTicks(min * 1.2, max, 7)])];
-  drawLegend(g, { y: height, width, height: legendHeight, text, min, max, scale, ticks, arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx, hasLabels: Boolean(input.labels?.length), hasBlindSpot });
+  const pixelLimited = minPx <= input.frameMinLetterPx * 1.0001;
+  drawLegend(g, { y: height, width, height: legendHeight, text, scale, ticks: [...DETAIL_CONTOURS_ARCMIN], arcminPerPx: input.arcminPerPxAtGaze, title: input.title, pixelLimited, frameMinLetterPx: input.frameMinLetterPx, hasLabels: Boolean(input.labels?.length), hasBlindSpot });
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
 }
 
 function formatPx(v: number): string {
   return v >= 10 ? v.toFixed(0) : v.toFixed(1).replace(/\.0$/, '');
+}
+
+/** Standard deviation of the frame's grey in a rectangle: low where a label would cover nothing. */
+function busyness(luma: Float32Array, width: number, rect: readonly number[]): number {
+  const height = luma.length / width;
+  let sum = 0;
+  let sum2 = 0;
+  let count = 0;
+  for (let y = Math.max(0, Math.floor(rect[1])); y < Math.min(height, rect[1] + rect[3]); y += 2) {
+    for (let x = Math.max(0, Math.floor(rect[0])); x < Math.min(width, rect[0] + rect[2]); x += 2) {
+      const v = luma[y * width + x];
+      sum += v;
+      sum2 += v * v;
+      count++;
+    }
+  }
+  return count ? Math.sqrt(Math.max(0, sum2 / count - (sum / count) ** 2)) : Infinity;
 }
 
 /** Marks pixels below `level` that touch a pixel at or above it, in white with a dark edge. */
@@ -103,9 +140,13 @@ function drawContour(rgba: Uint8ClampedArray, map: Float32Array, width: number, 
   }
 }
 
-/** Where to label a contour: the first crossing along one of a few rays from the gaze that stays in the frame. */
-function contourLabelPoint(map: Float32Array, width: number, height: number, gaze: [number, number], level: number): [number, number] | undefined {
-  for (const angleDeg of [-25, -155, 25, 155, -90, 90]) {
+/** Where a contour crosses rays from the gaze (every 15°): candidate places for its label. */
+function contourCrossings(map: Float32Array, width: number, height: number, gaze: [number, number], level: number): [number, number][] {
+  const out: [number, number][] = [];
+  // A contour around the gaze exists only where the gaze itself is below the level.
+  const atGaze = map[Math.min(height - 1, Math.max(0, Math.round(gaze[1]))) * width + Math.min(width - 1, Math.max(0, Math.round(gaze[0])))];
+  if (!(atGaze < level)) return out;
+  for (let angleDeg = 0; angleDeg < 360; angleDeg += 15) {
     const dx = Math.cos((angleDeg * Math.PI) / 180);
     const dy = Math.sin((angleDeg * Math.PI) / 180);
     for (let r = 1; ; r++) {
@@ -113,12 +154,12 @@ function contourLabelPoint(map: Float32Array, width: number, height: number, gaz
       const y = Math.round(gaze[1] + dy * r);
       if (x < 0 || y < 0 || x >= width || y >= height) break;
       if (map[y * width + x] >= level && Number.isFinite(map[y * width + x])) {
-        if (x > width - 80 || y < 30) break;
-        return [x, y];
+        out.push([x, y]);
+        break;
       }
     }
   }
-  return undefined;
+  return out;
 }
 
 interface LegendLayout {
@@ -126,8 +167,6 @@ interface LegendLayout {
   width: number;
   height: number;
   text: number;
-  min: number;
-  max: number;
   scale: (v: number) => number;
   ticks: number[];
   arcminPerPx: number;
@@ -197,20 +236,27 @@ function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
   g.font = font(l.text, true);
   g.fillText(l.title, pad, l.y + l.text * 1.5);
   g.font = font(l.text * 0.9);
+  // Ticks in arcmin (the fixed scale) with their px at the gaze below; never clipped at either end.
+  const within = (x: number, w: number): number => Math.max(pad, Math.min(x - w / 2, l.width - pad - w));
   for (const t of l.ticks) {
     const x = barX + l.scale(t) * (barW - 1);
     g.fillRect(x, barY + barH, 1, l.text * 0.4);
-    const label = `${formatPx(t)} px`;
-    const arcmin = `${(t * l.arcminPerPx).toFixed(t * l.arcminPerPx >= 10 ? 0 : 1)}′`;
-    g.fillText(label, Math.min(x - g.measureText(label).width / 2, l.width - pad - g.measureText(label).width), barY + barH + l.text * 1.4);
+    const arcmin = `${t}′`;
+    const px = `${formatPx(t / l.arcminPerPx)} px`;
+    g.fillText(arcmin, within(x, g.measureText(arcmin).width), barY + barH + l.text * 1.4);
     g.fillStyle = '#a8b0bc';
-    g.fillText(arcmin, Math.min(x - g.measureText(arcmin).width / 2, l.width - pad - g.measureText(arcmin).width), barY + barH + l.text * 2.5);
+    g.fillText(px, within(x, g.measureText(px).width), barY + barH + l.text * 2.5);
     g.fillStyle = '#e8e8e8';
   }
+  g.fillStyle = '#a8b0bc';
+  g.font = font(l.text * 0.75);
+  const ends = `${DETAIL_SCALE_ARCMIN[0]}′ … ${DETAIL_SCALE_ARCMIN[1]}′, the same scale in every run`;
+  if (barX + barW + pad + g.measureText(ends).width < l.width - pad) g.fillText(ends, barX + barW + pad, barY + barH * 0.8);
+  g.fillStyle = '#e8e8e8';
   const floor = l.pixelLimited ? ` Where the map shows ${formatPx(l.frameMinLetterPx)} px the frame's pixels, not the eye, are the limit.` : '';
   const boxes = l.hasLabels ? ` Label boxes show each label's verdict by its role (glance: from the gaze; look: when looked at), judged on size, crowding, contrast and the blind spot: solid white = readable, dashed = legible with a limit not met (tagged), thick pink = not legible (tagged with the limit), dotted = decorative. The colours show size only; crowding cannot be seen in the picture.` : '';
   const blind = l.hasBlindSpot ? ' Hatched: the blind spot of the viewing eye.' : '';
-  const note = `Capital-letter height, px of the frame (′ = arcmin at the gaze, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours. Ring: gaze.${floor}${blind}${boxes}`;
+  const note = `Smallest legible capital height in arcmin (px of the frame at the gaze below, ${l.arcminPerPx.toFixed(2)}′ per px). White lines: contours at the ticks. Ring: gaze.${floor}${blind}${boxes}`;
   g.font = font(l.text * 0.8);
   g.fillStyle = '#cfd4dc';
   wrapText(g, note, pad, barY + barH + l.text * 3.7, l.width - 2 * pad, l.text * 1.05);
