@@ -13,6 +13,8 @@ import { prepareOutputFolder, writeNewFile, writeOutputsAtomically } from '../sr
 import { basename } from 'node:path';
 import { computeNumbers, sizeSpec } from '../src/pipeline.js';
 import { formatSizes, type SizesFormat } from './format-sizes.js';
+import { startPreviewServer } from '../src/serve/preview-server.js';
+import { takeSignals } from './signals.js';
 import { acuityModels } from '../src/retina/acuity-model.js';
 import { detectLabelsInFrame, proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
 import type { DepthUnit } from '../src/io/decode-depth.js';
@@ -117,6 +119,13 @@ function collectRatios(text: string, previous: Record<string, number>): Record<s
   const ratio = m ? Number(m[2]) : NaN;
   if (!m || !(ratio > 0.3 && ratio < 1)) throw new InvalidArgumentError('expected family=ratio with a capital height per em from 0.3 to 1, e.g. "Inter=0.727"');
   return { ...previous, [m[1].trim().toLowerCase()]: ratio };
+}
+
+/** --port: 0 (any free port) to 65535. */
+function portNumber(text: string): number {
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < 0 || value > 65535) throw new InvalidArgumentError('expected a port number from 0 to 65535 (0: any free port)');
+  return value;
 }
 
 /** --max-pixels: a whole number of pixels up to what the decoder may open. */
@@ -246,6 +255,26 @@ Examples:
     .action(async (opts: SetupOptions & { audience?: number; format: SizesFormat }) => {
       const { setup } = await resolveSetup(opts);
       io.out(formatSizes(setup, sizeSpec(setup, opts.audience), opts.format));
+    });
+
+  program.command('serve')
+    .description('live preview in the browser: open a frame, click the gaze, change age, refraction, pupil, light and distance')
+    .option('--port <port>', 'port to listen on (default: a free one)', (t) => portNumber(t), 0)
+    .option('--host <address>', 'address to listen on (default 127.0.0.1: this machine only)', '127.0.0.1')
+    .addHelpText('after', `
+Example:
+  $ eyeproof serve --port 8123        # then open http://127.0.0.1:8123/`)
+    .action(async (opts: { port: number; host: string }) => {
+      const preview = await startPreviewServer({ host: opts.host, port: opts.port, onWarning: (w) => io.err(`eyeproof: warning: ${w}\n`) });
+      io.err(`eyeproof: live preview at ${preview.url} — Ctrl-C to stop\n`);
+      await new Promise<void>((resolve) => {
+        takeSignals((signal) => {
+          io.err(`eyeproof: ${signal}: stopping the preview\n`);
+          takeSignals(undefined);
+          void preview.close().then(resolve);
+        });
+      });
+      io.err('eyeproof: the preview has stopped\n');
     });
 
   program.command('presets')

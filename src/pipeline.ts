@@ -15,7 +15,7 @@ import type { Display, Setup, Viewer } from './config/setup.js';
 import { FRAME_MIN_LETTER_PX, LETTER_LIMITS, letterLimits, letterSizeAt, opticalCutoffAt, type LetterLimit, type LetterLimits, READING_RESERVE } from './analysis/letter-size.js';
 import { criticalSpacingDeg, designLength, judgeLabel, type DesignLength, type DesignUnits, type Label, type LabelMaps, type LabelVerdict } from './analysis/labels.js';
 import { offAxisRatio } from './optics/off-axis.js';
-import { audienceEyes, audienceShareFor, letterForShare, readingSizeDistribution, type AudienceEye } from './analysis/audience.js';
+import { audienceEyes, audienceLetters, audienceShareFor, letterForShare, readingSizeDistribution, type AudienceEye } from './analysis/audience.js';
 import { projectionFor, pixelToTan, type Projection } from './geometry/projection.js';
 import { arcminPerPxAt, computeViewMap, fieldOfViewDeg, isInsideFrame, pixelAtFieldPoint, type ViewMap } from './geometry/view-map.js';
 import { buildLadder, createLadderSums, createLadderWorkspace, evaluateLadder, mapPyramid } from './image/ladder-pyramid.js';
@@ -393,7 +393,7 @@ export function sizeSpec(setup: Setup, audienceShare?: number): SizeSpec {
     };
     if (audience && audienceShare !== undefined) {
       const cutoff = mixedCutoffCpd(base.cutoffCpd(e, worseMeridian, eyes), e, coneShare);
-      const at = (kind: 'uncorrected' | 'corrected'): DesignLength => designLength(Math.ceil(letterForShare(audience, kind, audienceShare / 100, base, cutoff, e, arcminPerPx)), arcminPerPx, units);
+      const at = (kind: 'uncorrected' | 'corrected'): DesignLength => designLength(Math.ceil(letterForShare(audience, kind, audienceShare / 100, base, cutoff, e, arcminPerPx, model.limits.minLetterPx)), arcminPerPx, units);
       row.audience = { share: audienceShare, uncorrected: at('uncorrected'), corrected: at('corrected') };
     }
     return row;
@@ -676,6 +676,7 @@ export function labelMapsFor(prepared: PreparedProof, ctx: Context, viewMap: Vie
   }
   const coneShare = model.light.mesopicFactorM;
   const { eyes } = setup.viewer;
+  const lettersAt = audienceLetterCache(prepared);
   const referenceOptics = opticsFor(opticsInput(setup.percept.referenceViewer, model.refEye, model.pixelArcmin));
   return {
     ...viewMap, ...(seen ? { seen } : {}), luminance,
@@ -688,7 +689,16 @@ export function labelMapsFor(prepared: PreparedProof, ctx: Context, viewMap: Vie
     units: designUnitsFor(setup, frame.width),
     audienceAt: (e, m, arcminPerPx, letterPx) => {
       const base = acuityModels[setup.models.acuity];
-      return audienceShareFor(audienceFor(prepared), base, mixedCutoffCpd(base.cutoffCpd(e, m, eyes), e, coneShare), e, arcminPerPx, letterPx);
+      const cutoff = mixedCutoffCpd(base.cutoffCpd(e, m, eyes), e, coneShare);
+      // The eyes' letters at one place serve every label there (all look labels share the fovea).
+      const key = `${e.toFixed(3)}|${cutoff.toFixed(4)}`;
+      let letters = lettersAt.get(key);
+      if (!letters) {
+        letters = audienceLetters(audienceFor(prepared), base, cutoff, e);
+        if (lettersAt.size > 256) lettersAt.clear();
+        lettersAt.set(key, letters);
+      }
+      return audienceShareFor(audienceFor(prepared), base, cutoff, e, arcminPerPx, letterPx, model.limits.minLetterPx, letters);
     },
   };
 }
@@ -701,10 +711,17 @@ export function audienceCurves(prepared: PreparedProof, gazePx?: [number, number
   const base = acuityModels[setup.models.acuity];
   const cutoff = mixedCutoffCpd(base.cutoffCpd(0, 0, setup.viewer.eyes), 0, model.light.mesopicFactorM);
   const eyes = audienceFor(prepared);
-  return { arcminPerPx, curves: (['uncorrected', 'corrected'] as const).map((kind) => ({ kind, points: readingSizeDistribution(eyes, kind, base, cutoff, 0, arcminPerPx) })) };
+  return { arcminPerPx, curves: (['uncorrected', 'corrected'] as const).map((kind) => ({ kind, points: readingSizeDistribution(eyes, kind, base, cutoff, 0, arcminPerPx, model.limits.minLetterPx) })) };
 }
 
 const audiences = new WeakMap<PreparedProof, AudienceEye[]>();
+const audienceLetterCaches = new WeakMap<PreparedProof, Map<string, Float64Array>>();
+
+function audienceLetterCache(prepared: PreparedProof): Map<string, Float64Array> {
+  let cache = audienceLetterCaches.get(prepared);
+  if (!cache) audienceLetterCaches.set(prepared, (cache = new Map()));
+  return cache;
+}
 
 /** The audience's eyes in the proof's light and at its viewing distance, once per prepared frame. */
 export function audienceFor(prepared: PreparedProof): AudienceEye[] {

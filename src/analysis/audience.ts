@@ -132,29 +132,35 @@ export interface AudienceShare {
  * Share of each audience for whom a capital of `letterPx` frame px is readable at a field point:
  * `retinalCutoffCpd` is the unaged retina's cutoff there (the model's, in the proof's light).
  */
-export function audienceShareFor(eyes: readonly AudienceEye[], model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number, arcminPerPx: number, letterPx: number): AudienceShare {
+export function audienceShareFor(eyes: readonly AudienceEye[], model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number, arcminPerPx: number, letterPx: number, minLetterPx = FRAME_MIN_LETTER_PX, letters?: Float64Array): AudienceShare {
+  const arcmin = letters ?? audienceLetters(eyes, model, retinalCutoffCpd, eccentricityDeg);
   const share: AudienceShare = { uncorrected: 0, corrected: 0 };
-  for (const eye of eyes) {
-    const px = Math.max(FRAME_MIN_LETTER_PX, audienceLetterArcmin(eye, model, retinalCutoffCpd, eccentricityDeg) / arcminPerPx);
-    if (READING_RESERVE * px <= letterPx) share[eye.kind] += eye.weight;
+  for (let i = 0; i < eyes.length; i++) {
+    const px = Math.max(minLetterPx, arcmin[i] / arcminPerPx);
+    if (READING_RESERVE * px <= letterPx) share[eyes[i].kind] += eyes[i].weight;
   }
   return { uncorrected: Math.min(1, share.uncorrected), corrected: Math.min(1, share.corrected) };
+}
+
+/** Every eye's smallest legible capital at a field point, arcmin (to reuse across labels at one place). */
+export function audienceLetters(eyes: readonly AudienceEye[], model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number): Float64Array {
+  return Float64Array.from(eyes, (eye) => audienceLetterArcmin(eye, model, retinalCutoffCpd, eccentricityDeg));
 }
 
 /**
  * The cumulative share of an audience that reads a capital of each height at a field point: points
  * [px, share] in increasing px, the share reached at that px.
  */
-export function readingSizeDistribution(eyes: readonly AudienceEye[], kind: AudienceKind, model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number, arcminPerPx: number): [number, number][] {
+export function readingSizeDistribution(eyes: readonly AudienceEye[], kind: AudienceKind, model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number, arcminPerPx: number, minLetterPx = FRAME_MIN_LETTER_PX): [number, number][] {
   const sizes = eyes.filter((e) => e.kind === kind)
-    .map((e) => ({ px: READING_RESERVE * Math.max(FRAME_MIN_LETTER_PX, audienceLetterArcmin(e, model, retinalCutoffCpd, eccentricityDeg) / arcminPerPx), w: e.weight }))
+    .map((e) => ({ px: READING_RESERVE * Math.max(minLetterPx, audienceLetterArcmin(e, model, retinalCutoffCpd, eccentricityDeg) / arcminPerPx), w: e.weight }))
     .sort((a, b) => a.px - b.px);
   let cumulative = 0;
   return sizes.map((s) => [s.px, Math.min(1, (cumulative += s.w))]);
 }
 
 /** Smallest capital (frame px) that a given share (0–1) of an audience reads at a field point. */
-export function letterForShare(eyes: readonly AudienceEye[], kind: AudienceKind, share: number, model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number, arcminPerPx: number): number {
-  const points = readingSizeDistribution(eyes, kind, model, retinalCutoffCpd, eccentricityDeg, arcminPerPx);
+export function letterForShare(eyes: readonly AudienceEye[], kind: AudienceKind, share: number, model: AcuityModel, retinalCutoffCpd: number, eccentricityDeg: number, arcminPerPx: number, minLetterPx = FRAME_MIN_LETTER_PX): number {
+  const points = readingSizeDistribution(eyes, kind, model, retinalCutoffCpd, eccentricityDeg, arcminPerPx, minLetterPx);
   return (points.find(([, s]) => s >= share - 1e-9) ?? points[points.length - 1])[0];
 }

@@ -172,7 +172,7 @@ export const frameDecl: ObjectDecl = {
       default: [0, 0, 0], doc: 'sRGB 8-bit colour that transparent pixels are composited over (as a compositor does, in encoded values).',
     },
     pixelRatio: {
-      type: 'number', unit: '', minimum: 0.25, maximum: 8, default: 1,
+      type: 'number', unit: '', minimum: 0.05, maximum: 8, default: 1,
       doc: 'Frame pixels per display pixel of the design (2 for an @2x export). Fixes are given in design units too (frame px / pixelRatio).',
     },
     placementPx: {
