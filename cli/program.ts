@@ -1,6 +1,7 @@
 /** The eyeproof command: parses, calls the library, prints, and picks the exit code — nothing else. */
 import { existsSync } from 'node:fs';
 import { Command, CommanderError, InvalidArgumentError, Option } from 'commander';
+import { closest } from 'fastest-levenshtein';
 import { ConfigError, InputError, OutputError } from '../src/errors.js';
 import { displayPresets, viewerPresets } from '../src/config/presets.js';
 import { setupJsonSchema } from '../src/config/schema.js';
@@ -16,7 +17,8 @@ import { formatSizes, type SizesFormat } from './format-sizes.js';
 import { startPreviewServer } from '../src/serve/preview-server.js';
 import { takeSignals } from './signals.js';
 import { acuityModels } from '../src/retina/acuity-model.js';
-import { detectLabelsInFrame, proofFrame, PROOF_OUTPUT_NAMES } from '../src/proof.js';
+import { detectLabelsInFrame, proofFrame, PROOF_OUTPUT_NAMES, type ProofInputs } from '../src/proof.js';
+import { runSweep, SWEEP_FILES, type SweepFrame, type SweepVariant } from '../src/sweep.js';
 import type { DepthUnit } from '../src/io/decode-depth.js';
 import { numbersReport } from '../src/report/build-report.js';
 import { GAZE_FORMS, isPlainPixels } from '../src/geometry/gaze-spec.js';
@@ -46,14 +48,14 @@ export interface CliIo {
 const processIo: CliIo = { out: (t) => process.stdout.write(t), err: (t) => process.stderr.write(t) };
 
 /** Builds the setup from presets, files and flags; returns it with a name for messages. */
-async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source: string }> {
+async function resolveSetup(opts: SetupOptions, quick: { ageYears?: number; viewingDistanceMm?: number } = {}): Promise<{ setup: Setup; source: string }> {
   let raw: Json = {};
   const sources: string[] = [];
   if (opts.setup) {
     if (displayPresets.some((p) => p.name === opts.setup)) raw = { display: { preset: opts.setup } };
     else if (existsSync(opts.setup) || /\.json$/i.test(opts.setup)) raw = (await readSetupJson(opts.setup)) as Json;
     else {
-      throw new ConfigError('--setup', [{ path: '--setup', received: opts.setup, expected: `a setup file or one of the display presets ${displayPresets.map((p) => p.name).join(', ')}` }]);
+      throw new ConfigError('--setup', [{ path: '--setup', received: opts.setup, expected: `a setup file or one of the display presets ${displayPresets.map((p) => p.name).join(', ')}`, hint: `did you mean "${closest(opts.setup, displayPresets.map((p) => p.name))}"?` }]);
     }
     sources.push(opts.setup);
   }
@@ -65,7 +67,7 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
       const v = (await readSetupJson(opts.viewer)) as Json;
       over.viewer = v && typeof v === 'object' && Object.hasOwn(v, 'viewer') ? v.viewer : v;
     } else {
-      throw new ConfigError('--viewer', [{ path: '--viewer', received: opts.viewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}` }]);
+      throw new ConfigError('--viewer', [{ path: '--viewer', received: opts.viewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}`, hint: `did you mean "${closest(opts.viewer, viewerPresets.map((p) => p.name))}"?` }]);
     }
     sources.push(opts.viewer);
   }
@@ -84,15 +86,19 @@ async function resolveSetup(opts: SetupOptions): Promise<{ setup: Setup; source:
         percept.referenceViewer = v && typeof v === 'object' && Object.hasOwn(v, 'viewer') ? v.viewer : v;
         sources.push(opts.referenceViewer);
       } else {
-        throw new ConfigError('--reference-viewer', [{ path: '--reference-viewer', received: opts.referenceViewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}` }]);
+        throw new ConfigError('--reference-viewer', [{ path: '--reference-viewer', received: opts.referenceViewer, expected: `a viewer file or one of the viewer presets ${viewerPresets.map((p) => p.name).join(', ')}`, hint: `did you mean "${closest(opts.referenceViewer, viewerPresets.map((p) => p.name))}"?` }]);
       }
     }
     over.percept = percept;
   }
   const merged = mergeSetupJson(raw, over);
-  // A gaze given by flag keeps the file's focus distance (gaze.focusDistanceM).
   // A viewer given by flag replaces the file's viewer rather than merging into it.
   if (over.viewer) merged.viewer = over.viewer;
+  // Quick flags (--age, --distance) change one value of the viewer or display, whatever gave them.
+  if (quick.ageYears !== undefined) merged.viewer = { ...((merged.viewer as Json | undefined) ?? {}), ageYears: quick.ageYears };
+  if (quick.viewingDistanceMm !== undefined) merged.display = { ...((merged.display as Json | undefined) ?? { preset: 'desktop-27in' }), viewingDistanceMm: quick.viewingDistanceMm };
+  if (quick.ageYears !== undefined) sources.push(`--age ${quick.ageYears}`);
+  if (quick.viewingDistanceMm !== undefined) sources.push(`--distance ${quick.viewingDistanceMm}`);
   const source = sources.length ? sources.join(' + ') : 'built-in defaults';
   const setup = validateSetup(merged, source);
   if (opts.perceptMode) setup.percept.modeFrom = 'command line';
@@ -147,6 +153,98 @@ function addSetupOptions(cmd: Command): Command {
     .option('--reference-viewer <preset|file>', 'who looks at a same-display percept (default: age-25)');
 }
 
+type ProofOpts = SetupOptions & { labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number; detectLabels: boolean; capHeightRatio: Record<string, number>; age?: string; distance?: string; gaze?: string; out: string };
+
+/** A comma list of numbers for --age or --distance, each within a range. */
+function numberList(text: string | undefined, flag: string, lo: number, hi: number, unit: string): number[] | undefined {
+  if (text === undefined) return undefined;
+  const values = text.split(',').map((t) => Number(t.trim()));
+  if (values.length === 0 || values.length > 12 || values.some((v) => !Number.isFinite(v) || v < lo || v > hi)) {
+    throw new ConfigError(flag, [{ path: flag, received: text, expected: `a number from ${lo} to ${hi} ${unit}, or a comma list of up to 12 of them` }]);
+  }
+  return values;
+}
+
+/** The viewers (and distances) of a run: one, or the product of --viewer a,b × --age × --distance. */
+async function resolveVariants(opts: ProofOpts): Promise<SweepVariant[]> {
+  const viewers = opts.viewer ? opts.viewer.split(',').map((v) => v.trim()).filter(Boolean) : [undefined];
+  const ages = numberList(opts.age, '--age', 1, 100, 'years') ?? [undefined];
+  const distances = numberList(opts.distance, '--distance', 50, 20000, 'mm') ?? [undefined];
+  const out: SweepVariant[] = [];
+  for (const viewer of viewers) {
+    for (const age of ages) {
+      for (const distance of distances) {
+        const { setup, source } = await resolveSetup({ ...opts, viewer }, { ...(age !== undefined ? { ageYears: age } : {}), ...(distance !== undefined ? { viewingDistanceMm: distance } : {}) });
+        const name = [setup.presetNames.viewer && age === undefined ? setup.presetNames.viewer : `age-${setup.viewer.ageYears}`, ...(distance !== undefined ? [`${distance}mm`] : [])].join('-')
+          .replace(/[^A-Za-z0-9._-]/g, '_');
+        out.push({ name: out.some((o) => o.name === name) ? `${name}-${out.length + 1}` : name, setup, source });
+      }
+    }
+  }
+  return out;
+}
+
+/** A frame's bytes and the inputs that go with it: labels beside it or given, depth map, gaze. */
+async function readFrameInputs(frame: string, opts: ProofOpts): Promise<{ bytes: Uint8Array; labelsFile?: string; besideFrame: string; inputs: Omit<ProofInputs, 'onStage' | 'onNote'> }> {
+  const bytes = await readInputBytes(frame, 'the frame');
+  const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
+  const labelsFile = opts.labels ?? (existsSync(besideFrame) ? besideFrame : undefined);
+  const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file', MAX_JSON_FILE_BYTES)), capHeightRatios: opts.capHeightRatio } : undefined;
+  const depth = opts.depth ? { file: opts.depth, bytes: await readInputBytes(opts.depth, 'the depth map'), unit: opts.depthUnit } : undefined;
+  return {
+    bytes, besideFrame, ...(labelsFile ? { labelsFile } : {}),
+    inputs: {
+      ...(labels ? { labels } : {}), ...(depth ? { depth } : {}), ...(opts.maxPixels ? { maxPixels: opts.maxPixels } : {}),
+      ...(opts.gaze !== undefined && !isPlainPixels(opts.gaze) ? { gaze: opts.gaze } : {}), detectLabels: opts.detectLabels,
+    },
+  };
+}
+
+/** A progress bar on stderr that rewrites one line and ends cleanly. */
+function progressBar(io: CliIo, quiet: boolean): { update(done: number, total: number, what: string): void; end(): void } {
+  const start = performance.now();
+  let drawn = false;
+  return {
+    update(done, total, what) {
+      if (quiet) return;
+      const width = 24;
+      const filled = Math.round((width * done) / Math.max(1, total));
+      const elapsed = (performance.now() - start) / 1000;
+      const eta = done > 0 && done < total ? ` · about ${Math.ceil((elapsed / done) * (total - done))} s left` : '';
+      io.err(`\r[${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${done}/${total} ${what}${eta}`.padEnd(100).slice(0, 100));
+      drawn = true;
+    },
+    end() {
+      if (drawn) io.err('\n');
+    },
+  };
+}
+
+async function runSweepCommand(io: CliIo, frameFiles: string[], variants: SweepVariant[], opts: ProofOpts, quiet: boolean): Promise<void> {
+  const frames: SweepFrame[] = [];
+  for (const file of frameFiles) {
+    const read = await readFrameInputs(file, opts);
+    const base = basename(file).replace(/\.[^.]+$/, '').replace(/[^A-Za-z0-9._-]/g, '_') || 'frame';
+    frames.push({ file, bytes: read.bytes, name: frames.some((f) => f.name === base) ? `${base}-${frames.length + 1}` : base, inputs: read.inputs });
+  }
+  const inputs = [...frameFiles, opts.setup, ...(opts.viewer ?? '').split(','), opts.referenceViewer, opts.depth, ...frameFiles.map((f) => f.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json')]
+    .filter((f): f is string => Boolean(f) && existsSync(f as string));
+  await prepareOutputFolder(opts.out, inputs, [...SWEEP_FILES, ...frames.map((f) => f.name)], 'sweep.json');
+  const bar = progressBar(io, quiet);
+  const notes: string[] = [];
+  const { files, done } = await runSweep(frames, variants, (n) => notes.push(n), (d, t, what) => bar.update(d, t, what));
+  bar.end();
+  for (const n of [...new Set(notes)]) io.err(`eyeproof: note: ${n}\n`);
+  await writeOutputsAtomically(opts.out, files);
+  if (quiet) return;
+  for (const d of done) {
+    const c = { readable: 0, legible: 0, 'not legible': 0 } as Record<string, number>;
+    for (const l of d.labels ?? []) c[l.verdict] = (c[l.verdict] ?? 0) + 1;
+    io.err(`  ${d.frame.name} · ${d.variant.name}: ${d.labels ? `${c.readable} readable, ${c.legible} legible, ${c['not legible']} not legible` : 'no labels'}\n`);
+  }
+  io.err(`eyeproof: wrote a sweep of ${done.length} proofs into ${opts.out}/ (contact-sheet.png, ${variants.length > 1 ? 'compare-viewers.png, ' : ''}sweep.html, sweep.json and one folder per frame and viewer)\n`);
+}
+
 export function buildProgram(io: CliIo = processIo): Command {
   const program = new Command('eyeproof')
     .description('Shows what a viewer\'s retina receives and resolves when looking at a rendered interface frame.\n' + CAUTION_SHORT)
@@ -155,11 +253,13 @@ export function buildProgram(io: CliIo = processIo): Command {
     .configureOutput({ writeOut: (t) => io.out(t), writeErr: (t) => io.err(t) })
     .exitOverride();
 
-  addSetupOptions(program.command('proof <frame>'))
-    .description('simulate one viewer looking at a frame and judge its text labels; writes percept.png (what the viewer resolves), detail-map.png (smallest legible letter everywhere, with label verdicts), compare.png (frame and percept side by side), reach.png (where the gaze may rest for each glance label), audience.png (share of an audience reading each capital height), psf.png (the eye\'s point-spread functions) and report.json (every number, verdict and fix)')
+  addSetupOptions(program.command('proof <frames...>'))
+    .description('simulate a viewer looking at a frame and judge its text labels; writes percept.png (what the viewer resolves), detail-map.png (smallest legible letter everywhere, with label verdicts), compare.png and compare-slide.png (frame and percept side by side), reach.png (where the gaze may rest for each glance label), audience.png (share of an audience reading each capital height), psf.png (the eye\'s point-spread functions), report.json (every number, verdict and fix) and review.html (all of it on one page). Several frames, viewers (--viewer a,b), ages or distances make a sweep: one folder per frame and viewer, plus contact-sheet.png, compare-viewers.png, sweep.html and sweep.json')
     .option('-o, --out <folder>', 'output folder: created if missing, replaced as a whole, so it may hold only eyeproof outputs', 'eyeproof-out')
     .option('-q, --quiet', 'no progress on stderr')
-    .option('--json', 'print report.json on stdout and nothing else')
+    .option('--json', 'print report.json on stdout and nothing else (one frame and viewer only)')
+    .option('--age <years>', 'viewer age in years, overriding the viewer\'s; a comma list sweeps ages (e.g. 25,45,70)')
+    .option('--distance <mm>', 'viewing distance of a screen in mm, overriding the display\'s; a comma list sweeps distances')
     .option('-l, --labels <file>', 'labels file with the text runs to judge, or the frame\'s SVG export (text elements are read) (default: <frame>.labels.json beside the frame, if there is one)')
     .option('--cap-height-ratio <family=ratio...>', 'capital height per em of a font family in an SVG export (default 0.7; the bundled IBM Plex Sans is measured)', collectRatios, {})
     .option('-d, --depth <file>', 'depth map: a 16-bit greyscale PNG of distances from the eye, same size as the frame (0 = none)')
@@ -170,31 +270,33 @@ export function buildProgram(io: CliIo = processIo): Command {
 Examples:
   $ eyeproof proof sample-scenes/ferry-console.png
   $ eyeproof proof frame.png --setup desktop-27in --viewer age-55 --gaze 1280,720 --out review/
+  $ eyeproof proof frame.png --age 60 --distance 800                       # quick viewer and distance
+  $ eyeproof proof a.png b.png --viewer age-25,age-70 --gaze labels --out sweep/   # a sweep
   $ eyeproof proof chip.png --setup my-headset.json --viewer myope-2d --acuity-model contrast-threshold
   $ eyeproof proof passthrough.png --setup headset-wide --depth passthrough-depth.png --depth-unit mm`)
-    .action(async (frame: string, opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number; detectLabels: boolean; capHeightRatio: Record<string, number> }) => {
-      const { setup, source } = await resolveSetup(opts);
-      const bytes = await readInputBytes(frame, 'the frame');
-      const besideFrame = frame.replace(/\.(png|jpe?g|webp)$/i, '') + '.labels.json';
-      const labelsFile = opts.labels ?? (existsSync(besideFrame) ? besideFrame : undefined);
-      const labels = labelsFile ? { file: labelsFile, text: new TextDecoder().decode(await readInputBytes(labelsFile, 'the labels file', MAX_JSON_FILE_BYTES)), capHeightRatios: opts.capHeightRatio } : undefined;
-      const depth = opts.depth ? { file: opts.depth, bytes: await readInputBytes(opts.depth, 'the depth map'), unit: opts.depthUnit } : undefined;
-      const inputs = [frame, opts.setup, opts.viewer, opts.referenceViewer, labelsFile, opts.depth].filter((f): f is string => Boolean(f) && existsSync(f as string));
-      await prepareOutputFolder(opts.out, inputs, PROOF_OUTPUT_NAMES);
+    .action(async (frames: string[], opts: SetupOptions & { out: string; quiet?: boolean; json?: boolean; labels?: string; depth?: string; depthUnit: DepthUnit; maxPixels?: number; detectLabels: boolean; capHeightRatio: Record<string, number>; age?: string; distance?: string }) => {
+      const variants = await resolveVariants(opts);
       const quiet = Boolean(opts.quiet || opts.json);
+      if (frames.length > 1 || variants.length > 1) {
+        if (opts.json) throw new CommanderError(2, 'eyeproof.json', 'error: --json is for one frame and one viewer; a sweep writes sweep.json');
+        if (opts.labels && frames.length > 1) throw new CommanderError(2, 'eyeproof.labels', 'error: --labels names one frame\'s labels; in a sweep put each frame\'s <frame>.labels.json beside it');
+        await runSweepCommand(io, frames, variants, opts, quiet);
+        return;
+      }
+      const [frame] = frames;
+      const { setup, source } = variants[0];
+      const read = await readFrameInputs(frame, opts);
+      const inputs = [frame, opts.setup, opts.viewer, opts.referenceViewer, read.labelsFile, opts.depth].filter((f): f is string => Boolean(f) && existsSync(f as string));
+      await prepareOutputFolder(opts.out, inputs, PROOF_OUTPUT_NAMES);
       const notes: string[] = [];
-      const { files, report, result, fixations } = await proofFrame(bytes, frame, setup, source, {
-        onStage: progress(io, quiet), onNote: (n) => notes.push(n), ...(labels ? { labels } : {}), ...(depth ? { depth } : {}),
-        ...(opts.maxPixels ? { maxPixels: opts.maxPixels } : {}), ...(opts.gaze !== undefined && !isPlainPixels(opts.gaze) ? { gaze: opts.gaze } : {}),
-        detectLabels: opts.detectLabels,
-      });
+      const { files, report, result, fixations } = await proofFrame(read.bytes, frame, setup, source, { ...read.inputs, onStage: progress(io, quiet), onNote: (n) => notes.push(n) });
       // Notes are said even with --quiet (they change how the result reads), never on stdout.
       if (!opts.json) for (const n of notes) io.err(`eyeproof: note: ${n}\n`);
       const written = await writeOutputsAtomically(opts.out, files);
       if (opts.json) io.out(`${JSON.stringify(report, null, 2)}\n`);
       if (quiet) return;
-      if (result.labels) io.err(formatLabelSummary(result.labels, labelsFile ?? 'the frame (found, not read back)', fixations));
-      else io.err(`eyeproof: no labels, so no verdicts: give a labels file with --labels, or put ${besideFrame} beside the frame.\n`);
+      if (result.labels) io.err(formatLabelSummary(result.labels, read.labelsFile ?? 'the frame (found, not read back)', fixations));
+      else io.err(`eyeproof: no labels, so no verdicts: give a labels file with --labels, or put ${read.besideFrame} beside the frame.\n`);
       io.err(`eyeproof: wrote ${written.join(', ')}\n`);
     });
 

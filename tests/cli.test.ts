@@ -246,4 +246,35 @@ describe('eyeproof command', () => {
     expect(w.code).toBe(0);
     expect(JSON.parse(readFileSync(join(sub, 'picker.labels.json'), 'utf8')).labels.length).toBe(9);
   });
+
+  test('a sweep of 2 frames × 2 ages writes a folder per frame and viewer, a contact sheet, two viewers compared and sweep.json', async () => {
+    const sub = join(dir, 'sweep');
+    mkdirSync(sub);
+    const a = join(sub, 'a.png');
+    const b = join(sub, 'b.png');
+    await sharp(join(root, 'sample-scenes/ferry-console.png')).resize(640, 360).png().toFile(a);
+    await sharp(join(root, 'sample-scenes/ferry-console-night.png')).resize(640, 360).png().toFile(b);
+    const out = join(sub, 'out');
+    const r = await run(['proof', a, b, '--age', '25,70', '--distance', '600', '--out', out]);
+    expect(r.code).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['a', 'b', 'compare-viewers.png', 'contact-sheet.png', 'sweep.html', 'sweep.json']);
+    expect(readdirSync(join(out, 'a')).sort()).toEqual(['age-25-600mm', 'age-70-600mm']);
+    expect(readdirSync(join(out, 'a', 'age-70-600mm'))).toContain('review.html');
+    const sweep = JSON.parse(readFileSync(join(out, 'sweep.json'), 'utf8'));
+    expect(sweep.proofs.length).toBe(4);
+    expect(sweep.viewerDifferences.join(' ')).toMatch(/defocus .* D/);
+    const sheet = await sharp(join(out, 'contact-sheet.png')).metadata();
+    // Two columns of 480 px thumbnails with 16 px gaps.
+    expect(sheet.width).toBe(16 + 2 * (480 + 16));
+    // A second sweep may replace the first (its folder holds sweep.json).
+    expect((await run(['proof', a, '--age', '30,40', '--out', out, '-q'])).code).toBe(0);
+    expect(readdirSync(out).sort()).toEqual(['a', 'compare-viewers.png', 'contact-sheet.png', 'sweep.html', 'sweep.json']);
+    expect((await run(['proof', a, b, '--json', '--age', '30,40', '--out', join(sub, 'j')])).code).toBe(2);
+  }, 180_000);
+
+  test('a misspelt preset gets the nearest name', async () => {
+    const r = await run(['numbers', '--viewer', 'agee-70']);
+    expect(r.code).toBe(3);
+    expect(r.stderr).toMatch(/did you mean "age-70"/);
+  });
 });

@@ -92,7 +92,7 @@ export function recoverOutputFolder(dir: string): void {
  * be written, and no output would be one of the inputs (same device and inode, or the same real
  * path). Creates nothing.
  */
-export async function prepareOutputFolder(dir: string, inputs: readonly string[], names: readonly string[]): Promise<void> {
+export async function prepareOutputFolder(dir: string, inputs: readonly string[], names: readonly string[], marker?: string): Promise<void> {
   const target = resolve(dir);
   const { real, rest } = await nearestExisting(target);
   try {
@@ -107,7 +107,8 @@ export async function prepareOutputFolder(dir: string, inputs: readonly string[]
   const existing = await stat(target).catch(() => undefined);
   if (existing && !existing.isDirectory()) throw new OutputError(dir, 'is a file, not a folder', 'Give --out a folder path (it is created if missing).');
   // The folder is swapped as a whole, so it may hold only a set of eyeproof's outputs.
-  if (existing) {
+  // A folder holding `marker` (a sweep's sweep.json) is an earlier set of the same kind, replaced whole.
+  if (existing && !(marker && existsSync(join(target, marker)))) {
     const foreign = (await readdir(target)).filter((name) => !names.includes(name));
     if (foreign.length) {
       throw new OutputError(dir, `holds files eyeproof did not write (${foreign.slice(0, 3).join(', ')}${foreign.length > 3 ? `, and ${foreign.length - 3} more` : ''})`,
@@ -173,7 +174,13 @@ export async function writeOutputsAtomically(dir: string, files: readonly Output
   let stage = 'writing the new files';
   try {
     await mkdir(staging);
-    for (const file of files) await writeFile(join(staging, file.name), file.bytes);
+    for (const file of files) {
+      const path = join(staging, file.name);
+      // Nested names (a sweep's <frame>/<viewer>/…) stay inside the staging folder.
+      if (!resolve(path).startsWith(`${resolve(staging)}/`)) throw new Error(`output name ${file.name} leaves the output folder`);
+      await mkdir(dirname(path), { recursive: true });
+      await writeFile(path, file.bytes);
+    }
     stage = 'swapping the new set in';
     await writeFile(`${journal}.tmp`, JSON.stringify({ staging, old }));
     await rename(`${journal}.tmp`, journal);
