@@ -16,6 +16,9 @@ import { computeNumbers, sizeSpec } from '../src/pipeline.js';
 import { formatSizes, type SizesFormat } from './format-sizes.js';
 import { startPreviewServer } from '../src/serve/preview-server.js';
 import { takeSignals } from './signals.js';
+import { expandPlan, readPlan } from '../src/batch/plan.js';
+import { runPlanLocally, writeIndex } from '../src/batch/local.js';
+import { enqueuePlan, planStatus, queueName, startQueueWorker } from '../src/batch/queue.js';
 import { acuityModels } from '../src/retina/acuity-model.js';
 import { detectLabelsInFrame, proofFrame, PROOF_OUTPUT_NAMES, type ProofInputs } from '../src/proof.js';
 import { runSweep, SWEEP_FILES, type SweepFrame, type SweepVariant } from '../src/sweep.js';
@@ -125,6 +128,20 @@ function collectRatios(text: string, previous: Record<string, number>): Record<s
   const ratio = m ? Number(m[2]) : NaN;
   if (!m || !(ratio > 0.3 && ratio < 1)) throw new InvalidArgumentError('expected family=ratio with a capital height per em from 0.3 to 1, e.g. "Inter=0.727"');
   return { ...previous, [m[1].trim().toLowerCase()]: ratio };
+}
+
+/** A whole number from 1 to `max`. */
+function positiveInt(text: string, max: number): number {
+  const value = Number(text);
+  if (!Number.isInteger(value) || value < 1 || value > max) throw new InvalidArgumentError(`expected a whole number from 1 to ${max}`);
+  return value;
+}
+
+/** Some batch jobs failed (after the others ran and the index was written). */
+class BatchFailed extends Error {
+  constructor(readonly count: number) {
+    super(`${count} batch jobs failed`);
+  }
 }
 
 /** --port: 0 (any free port) to 65535. */
@@ -379,6 +396,75 @@ Example:
       io.err('eyeproof: the preview has stopped\n');
     });
 
+  program.command('batch <plan>')
+    .description('run a plan of frames × setups × viewers × gazes: on this machine (worker threads) by default, or through a Redis queue with --queue; resumable, writing results/ (results.jsonl, results.csv, summary.html) under the plan\'s root')
+    .option('--queue <url>', 'enqueue the jobs in BullMQ on this Redis (redis://host:6379) for `eyeproof worker`s instead of running them here')
+    .option('--status', 'with --queue: show the plan\'s progress and failures; when all is done, write the results index')
+    .option('--threads <n>', 'worker threads on this machine (default: one per core, as memory allows)', (t) => positiveInt(t, 64))
+    .option('-q, --quiet', 'no progress bar')
+    .addHelpText('after', `
+Examples:
+  $ eyeproof batch release-plan.json                            # on this machine; Ctrl-C and rerun to resume
+  $ eyeproof batch release-plan.json --queue redis://build-host:6379
+  $ eyeproof worker --queue redis://build-host:6379 --concurrency 2   # on each machine (shared output folder)
+  $ eyeproof batch release-plan.json --queue redis://build-host:6379 --status`)
+    .action(async (planFile: string, opts: { queue?: string; status?: boolean; threads?: number; quiet?: boolean }) => {
+      const plan = readPlan(planFile);
+      const jobs = expandPlan(plan);
+      if (opts.status && !opts.queue) throw new CommanderError(2, 'eyeproof.status', 'error: --status is for a plan run through --queue; a local run shows its progress as it goes');
+      if (opts.queue && opts.status) {
+        const s = await planStatus(plan, opts.queue);
+        io.out(`${s.queue}: ${s.completed} completed, ${s.active} running, ${s.waiting} waiting, ${s.delayed} waiting to retry, ${s.failed} failed (of ${jobs.length} jobs in the plan)\n`);
+        for (const f of s.failures) io.out(`  failed after ${f.attempts} attempts: ${f.folder}: ${f.error}\n`);
+        if (s.waiting + s.active + s.delayed === 0) {
+          await writeIndex(plan, jobs);
+          io.out(`results index written to ${plan.root}/results/\n`);
+        }
+        return;
+      }
+      if (opts.queue) {
+        const { added, skipped } = await enqueuePlan(plan, jobs, opts.queue);
+        io.err(`eyeproof: ${added} jobs enqueued on ${opts.queue} (queue ${queueName(plan)}), ${skipped} already done. Start workers with \`eyeproof worker --queue ${opts.queue}\`; follow with --status.\n`);
+        return;
+      }
+      const bar = progressBar(io, Boolean(opts.quiet));
+      const failures: string[] = [];
+      const start = performance.now();
+      // Ctrl-C keeps every job already written (each is swapped in whole); a rerun resumes.
+      takeSignals((signal) => {
+        bar.end();
+        io.err(`eyeproof: stopped by ${signal}; finished jobs are kept, jobs in progress are dropped. Run the same command again to resume.\n`);
+        process.exit(signal === 'SIGINT' ? 130 : 143);
+      });
+      const r = await runPlanLocally(plan, jobs, {
+        onProgress: (done, total, skipped) => bar.update(done, total, `jobs${skipped ? ` (${skipped} already done)` : ''}`),
+        onFailure: (job, message) => failures.push(`${job.folder}: ${message.split('\n')[0]}`),
+      }, opts.threads);
+      takeSignals(undefined);
+      bar.end();
+      const minutes = (performance.now() - start) / 60_000;
+      for (const f of failures) io.err(`eyeproof: failed: ${f}\n`);
+      io.err(`eyeproof: ${r.done} jobs done${r.done ? ` (${(r.done / Math.max(minutes, 1e-9)).toFixed(1)} jobs per minute)` : ''}, ${r.skipped} already done, ${r.failed} failed; results in ${plan.root}/results/\n`);
+      if (r.failed) throw new BatchFailed(r.failed);
+    });
+
+  program.command('worker')
+    .description('take batch jobs from a Redis queue (BullMQ) and write their outputs into the plan\'s shared output folder, until stopped')
+    .requiredOption('--queue <url>', 'the Redis the plans were enqueued on (redis://host:6379)')
+    .option('--concurrency <n>', 'jobs at once in this process (default 1; a proof uses one core)', (t) => positiveInt(t, 64), 1)
+    .option('--lock-seconds <s>', 'how long a job stays taken without a sign of life: a killed worker\'s job is taken again after it (default 60)', (t) => positiveInt(t, 3600), 60)
+    .action(async (opts: { queue: string; concurrency: number; lockSeconds: number }) => {
+      const worker = await startQueueWorker({ url: opts.queue, concurrency: opts.concurrency, lockMs: opts.lockSeconds * 1000, onEvent: (t) => io.err(`eyeproof worker: ${t}\n`) });
+      io.err(`eyeproof worker: taking jobs from ${opts.queue} (concurrency ${opts.concurrency}); Ctrl-C to stop\n`);
+      await new Promise<void>((resolve) => {
+        takeSignals((signal) => {
+          io.err(`eyeproof worker: ${signal}: finishing the jobs in progress\n`);
+          takeSignals(undefined);
+          void worker.stop().then(resolve);
+        });
+      });
+    });
+
   program.command('presets')
     .description('list the built-in display and viewer presets')
     .option('--json', 'print JSON with each preset\'s values and basis')
@@ -403,7 +489,11 @@ Example:
 }
 
 function report(io: CliIo, err: unknown): number {
-  if (err instanceof CommanderError) return err.exitCode === 0 ? EXIT.ok : EXIT.usage;
+  if (err instanceof CommanderError) {
+    if (err.exitCode !== 0 && err.code.startsWith('eyeproof.')) io.err(`${err.message}\n`);
+    return err.exitCode === 0 ? EXIT.ok : EXIT.usage;
+  }
+  if (err instanceof BatchFailed) return EXIT.input;
   if (err instanceof ConfigError) {
     io.err(`eyeproof: the setup is not valid.\n${err.message}\nFix these fields (see \`eyeproof schema\` and the README's setup reference) and run again. Nothing was written.\n`);
     return EXIT.setup;

@@ -3,6 +3,7 @@
  * report out. No argv, exit codes or HTTP here.
  */
 import sharp from 'sharp';
+import type { LinearRgb } from './image/plane.js';
 import type { Setup } from './config/setup.js';
 import { ConfigError, InputError } from './errors.js';
 import { checkFramePixels, DEFAULT_MAX_FRAME_PIXELS, probeImage, decodeFrame } from './io/decode-frame.js';
@@ -173,10 +174,20 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   const f = result.optics.figures;
   const psf = renderPsfPicture(result.optics.channelPsfs, result.optics.grid, f,
     `pupil ${result.numbers.eye.pupilDiameterMm.toFixed(1)} mm · white-light MTF at 10/30 cpd ${f.mtfAt10Cpd.toFixed(2)}/${f.mtfAt30Cpd.toFixed(2)} · Strehl at 555 nm ${f.strehlRatio.toFixed(3)} · 50/80 % of the light within ${f.encircledEnergy50DiameterArcmin.toFixed(1)}′/${f.encircledEnergy80DiameterArcmin.toFixed(1)}′ · in focus: ${f.focusWavelengthNm.toFixed(0)} nm`);
-  const fixationResults: FixationResult[] | undefined = fixations?.map((f, i) => ({
-    given: f.given, gazePx: [Math.round(f.gazePx[0]), Math.round(f.gazePx[1])], outsideFrame: f.outsideFrame,
-    ...(labels ? { labels: i === 0 ? result.labels : lookAt(prepared, { labels, gazePx: [Math.round(f.gazePx[0]), Math.round(f.gazePx[1])] }).labels } : {}),
-  }));
+  // Each further fixation is one cheap gaze step on the prepared proof (its arrays reused); with
+  // several, each percept is kept small for the review page to step through.
+  let fixationResults: FixationResult[] | undefined;
+  const fixationPictures: { given: string; jpeg: Uint8Array }[] = [];
+  if (fixations) {
+    fixationResults = [];
+    let scratch: ProofResult | undefined;
+    for (const [i, f] of fixations.entries()) {
+      const gazePx: [number, number] = [Math.round(f.gazePx[0]), Math.round(f.gazePx[1])];
+      const look = i === 0 ? result : (scratch = lookAt(prepared, { ...(labels ? { labels } : {}), gazePx, ...(scratch ? { reuse: scratch } : {}) }));
+      fixationResults.push({ given: f.given, gazePx, outsideFrame: f.outsideFrame, ...(look.labels ? { labels: look.labels } : {}) });
+      if (fixations.length > 1) fixationPictures.push({ given: f.given, jpeg: await smallJpeg(look.percept) });
+    }
+  }
   const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], {
     labelsFile: labelsInput?.file ?? (detected ? '(found in the frame: eyeproof labels)' : undefined), ...(depthInput ? { depthFile: { file: depthInput.file, unit: depthInput.unit } } : {}), frameScale: scale,
     ...(fixationResults ? { fixations: fixationResults } : {}),
@@ -197,7 +208,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
     audience: { png: audiencePng, width: audienceChart.width, height: audienceChart.height },
     compare: { png: await slideSized(compare), width: Math.min(SLIDE_WIDTH_PX, compare.width), height: slideHeight(compare) },
     ...(result.labels ? reviewLabels(result.labels) : {}),
-    ...(fixationResults && fixationResults.length > 1 ? { fixations: fixationResults.map((f) => ({ given: f.given, gazePx: f.gazePx, summary: f.labels ? summaryLine(f.labels) : '' })) } : {}),
+    ...(fixationResults && fixationResults.length > 1 ? { fixations: fixationResults.map((f, i) => ({ given: f.given, gazePx: f.gazePx, summary: f.labels ? summaryLine(f.labels) : '', ...(fixationPictures[i] ? { jpeg: fixationPictures[i].jpeg } : {}) })) } : {}),
     facts: reviewFacts(setup, result),
     models: ((report.models ?? []) as { stage: string; name: string; source: string }[]).map((m) => ({ stage: m.stage, name: m.name, source: m.source })),
     cautions: CAUTIONS,
@@ -275,4 +286,11 @@ function reviewFacts(setup: Setup, result: ProofResult): [string, string][] {
     ['optics', `MTF ${n.optics.mtfAt10Cpd.toFixed(2)} at 10 cpd, ${n.optics.mtfAt30Cpd.toFixed(2)} at 30 cpd; Strehl ${n.optics.strehlRatio.toFixed(3)}; ${(100 * n.optics.scatteredFraction1To100Deg).toFixed(1)} % stray light beyond 1°`],
     ['percept', setup.percept.mode === 'same-display' ? `shown on this display for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer` : 'the image on the retina'],
   ];
+}
+
+/** A percept at most 960 px wide as JPEG, for pages that step through fixations. */
+async function smallJpeg(percept: LinearRgb): Promise<Uint8Array> {
+  const rgba = linearToRgba8(percept);
+  return new Uint8Array(await sharp(Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength), { raw: { width: percept.width, height: percept.height, channels: 4 } })
+    .resize({ width: Math.min(960, percept.width), kernel: 'lanczos3' }).removeAlpha().jpeg({ quality: 85 }).toBuffer());
 }

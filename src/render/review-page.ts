@@ -37,7 +37,7 @@ export interface ReviewInput {
   labels?: ReviewLabelRow[];
   labelRule?: string;
   labelSummary?: string;
-  fixations?: { given: string; gazePx: [number, number]; summary: string }[];
+  fixations?: { given: string; gazePx: [number, number]; summary: string; jpeg?: Uint8Array }[];
   facts: [string, string][];
   models: { stage: string; name: string; source: string }[];
   cautions: readonly string[];
@@ -89,6 +89,7 @@ footer { color: var(--muted); font-size: 12px; padding: 24px 20px 40px; }
   body { background: #fff; font-size: 11px; }
   nav.views, input[type=range], .slider .handle, .slider-labels { display: none; }
   .view { display: block !important; break-inside: avoid; margin-bottom: 16px; }
+  figure.fixation { display: block !important; }
   .slider .after { position: static; clip-path: none; margin-top: 8px; }
   th { position: static; }
 }
@@ -102,7 +103,14 @@ const SCRIPT = `
   function set(v) { after.style.clipPath = 'inset(0 0 0 ' + v + '%)'; handle.style.left = v + '%'; }
   range.addEventListener('input', function () { set(range.value); });
   set(range.value);
-  var buttons = document.querySelectorAll('nav.views button');
+  var steps = document.querySelectorAll('button.fix');
+  steps.forEach(function (b) {
+    b.addEventListener('click', function () {
+      steps.forEach(function (o) { o.setAttribute('aria-pressed', String(o === b)); });
+      document.querySelectorAll('figure.fixation').forEach(function (f) { f.hidden = f.id !== 'fixation-' + b.dataset.fix; });
+    });
+  });
+  var buttons = document.querySelectorAll('nav.views button:not(.fix)');
   buttons.forEach(function (b) {
     b.addEventListener('click', function () {
       buttons.forEach(function (o) { o.setAttribute('aria-pressed', String(o === b)); });
@@ -114,7 +122,8 @@ const SCRIPT = `
 
 export function renderReviewPage(r: ReviewInput): string {
   const csp = "default-src 'none'; img-src data:; style-src 'unsafe-inline'; script-src 'unsafe-inline'; base-uri 'none'; form-action 'none'";
-  const views: [string, string][] = [['view-slider', 'Frame ⇄ percept'], ['view-detail', 'Detail map'], ['view-reach', 'Reach'], ['view-audience', 'Audience'], ['view-compare', 'Side by side']];
+  const stepping = (r.fixations ?? []).filter((f) => f.jpeg);
+  const views: [string, string][] = [['view-slider', 'Frame ⇄ percept'], ['view-detail', 'Detail map'], ['view-reach', 'Reach'], ['view-audience', 'Audience'], ['view-compare', 'Side by side'], ...(stepping.length > 1 ? [['view-fixations', `Fixations (${stepping.length})`] as [string, string]] : [])];
   const labelTable = r.labels?.length ? `
 <h2>Labels</h2>
 <p>${esc(r.labelSummary ?? '')}</p>
@@ -162,6 +171,11 @@ ${views.map(([id, name], i) => `<button type="button" data-view="${id}" aria-pre
 <section class="view" id="view-reach" aria-label="reach"><figure><img src="${dataUrl(r.reach)}" alt="reach of glance labels"><figcaption>Where the gaze can rest for each glance label to be read without moving the eyes.</figcaption></figure></section>
 <section class="view" id="view-audience" aria-label="audience"><figure><img src="${dataUrl(r.audience)}" alt="audience share by capital height"><figcaption>Share of an audience that reads text when looking at it, by capital height.</figcaption></figure></section>
 <section class="view" id="view-compare" aria-label="side by side"><figure><img src="${dataUrl(r.compare)}" alt="frame and percept side by side"><figcaption>Frame and percept side by side, with rings at 2, 5, 10, 20 and 30° from the gaze.</figcaption></figure></section>
+${stepping.length > 1 ? `<section class="view" id="view-fixations" aria-label="fixations">
+<p class="caption">The percept with the gaze at each fixation of the list, in order (step with the buttons).</p>
+<nav class="views" aria-label="fixations">${stepping.map((f, i) => `<button type="button" class="fix" data-fix="${i}" aria-pressed="${i === 0}">${esc(f.given)}</button>`).join('')}</nav>
+${stepping.map((f, i) => `<figure class="fixation" id="fixation-${i}"${i ? ' hidden' : ''}><img src="data:image/jpeg;base64,${Buffer.from(f.jpeg!).toString('base64')}" alt="percept with the gaze at ${esc(f.given)}"><figcaption>gaze ${esc(f.given)} (${f.gazePx.join(', ')} px): ${esc(f.summary)}</figcaption></figure>`).join('\n')}
+</section>` : ''}
 ${labelTable}
 ${fixations}
 <h2>Setup and viewer</h2>

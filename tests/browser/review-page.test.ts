@@ -65,8 +65,13 @@ describe('review.html in headless Chromium (Debian chromium via playwright-core)
     const rows = await tab.locator('#labels tbody tr').evaluateAll((trs) => trs.map((tr) => ({ id: tr.getAttribute('data-id'), verdict: (tr.children[3] as HTMLElement).innerText.replace(/^[✓–✗]\s*/, '') })));
     expect(rows.length).toBe(report.labels.verdicts.length);
     for (const v of report.labels.verdicts) expect(rows.find((r) => r.id === v.id)?.verdict).toBe(v.verdict);
-    // The fixations of the gaze list.
+    // The fixations of the gaze list: a table, and their percepts to step through.
     expect(await tab.locator('#fixations tbody tr').count()).toBe(2);
+    await tab.getByRole('button', { name: 'Fixations (2)' }).click();
+    expect(await tab.locator('#fixation-0').isVisible()).toBe(true);
+    await tab.getByRole('button', { name: 'label:alarm' }).click();
+    expect(await tab.locator('#fixation-1').isVisible()).toBe(true);
+    expect(await tab.locator('#fixation-0').isVisible()).toBe(false);
     await tab.screenshot({ path: join(ARTEFACTS, 'review-full.png'), fullPage: true });
     await tab.close();
   }, 60_000);
