@@ -319,15 +319,20 @@ function numbersFrom(ctx: Context, frameSizePx: [number, number], adapting: Adap
   };
 }
 
+/** The adapting light without a frame: the setup's, or that of an 18 % grey frame on the display. */
+function adaptingWithoutFrame(setup: Setup): Adapting {
+  const { display } = setup;
+  const given = setup.light.adaptingLuminanceCdM2;
+  return given === 'auto'
+    ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
+    : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+}
+
 /** The derived figures of a setup without a frame (the frame is taken to be the display's resolution). */
 export function computeNumbers(setup: Setup): DerivedNumbers {
   const size = setup.display.resolutionPx;
   const ctx = contextFor(setup, [size[0], size[1]]);
-  const { display } = setup;
-  const given = setup.light.adaptingLuminanceCdM2;
-  const adapting: Adapting = given === 'auto'
-    ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
-    : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+  const adapting = adaptingWithoutFrame(setup);
   const arcmin = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
   // Without a frame the light is taken to have the colour of the display's white (D65).
   return numbersFrom(ctx, [size[0], size[1]], adapting, eyeModel(ctx, adapting, SCOTOPIC_PER_PHOTOPIC_WHITE, arcmin));
@@ -366,11 +371,7 @@ export interface SizeSpec {
 export function sizeSpec(setup: Setup, audienceShare?: number): SizeSpec {
   const size: [number, number] = [setup.display.resolutionPx[0] * setup.frame.pixelRatio, setup.display.resolutionPx[1] * setup.frame.pixelRatio].map(Math.round) as [number, number];
   const ctx = contextFor(setup, size);
-  const { display } = setup;
-  const given = setup.light.adaptingLuminanceCdM2;
-  const adapting: Adapting = given === 'auto'
-    ? { adaptingLuminanceCdM2: ASSUMED_MEAN_REFLECTANCE * (display.peakLuminanceCdM2 - display.blackLuminanceCdM2) + display.blackLuminanceCdM2, adaptingLuminanceFrom: 'assumed 18 % grey frame' }
-    : { adaptingLuminanceCdM2: given, adaptingLuminanceFrom: 'setup' };
+  const adapting = adaptingWithoutFrame(setup);
   const arcminPerPx = arcminAtPixel(ctx, ctx.gazePx[0] + 0.5, ctx.gazePx[1] + 0.5);
   const model = eyeModel(ctx, adapting, SCOTOPIC_PER_PHOTOPIC_WHITE, arcminPerPx);
   const coneShare = model.light.mesopicFactorM;

@@ -4,7 +4,7 @@
  * the Okabe–Ito palette (colour-blind safe, common practice), and every line also carries its name.
  */
 import type { LabelVerdict } from '../analysis/labels.js';
-import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
+import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba, wrapText } from './canvas.js';
 
 /** Okabe & Ito (2008) colour-blind-safe palette, without black. */
 const PALETTE = ['#E69F00', '#56B4E9', '#009E73', '#F0E442', '#0072B2', '#D55E00', '#CC79A7'];
@@ -154,7 +154,7 @@ export function renderAudienceChart(input: AudienceChartInput): { rgba: Uint8Cla
   g.fillText(input.title, 20, 34);
   g.font = font(text * 0.85);
   g.fillStyle = '#cfd4dc';
-  wrap(g, input.caption, 20, 60, width - 40, text * 1.15);
+  wrapText(g, input.caption, 20, 60, width - 40, text * 1.15);
   g.fillStyle = '#9aa3b0';
   g.font = font(text * 0.75);
   g.fillText(`Faint vertical lines: the capital heights of this frame's labels. ${input.caution}`, 20, height - 18);
@@ -167,15 +167,3 @@ function niceStep(raw: number): number {
   return 10 * p;
 }
 
-function wrap(g: ReturnType<typeof newCanvas>['g'], text: string, x: number, y: number, maxWidth: number, lineHeight: number): void {
-  let line = '';
-  for (const word of text.split(' ')) {
-    const next = line ? `${line} ${word}` : word;
-    if (g.measureText(next).width > maxWidth && line) {
-      g.fillText(line, x, y);
-      line = word;
-      y += lineHeight;
-    } else line = next;
-  }
-  if (line) g.fillText(line, x, y);
-}

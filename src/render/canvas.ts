@@ -66,3 +66,17 @@ export function drawGazeMarker(g: SKRSContext2D, x: number, y: number, sizePx: n
     g.stroke();
   }
 }
+
+/** Fills text wrapped at word breaks to a width, line by line from (x, y). */
+export function wrapText(g: SKRSContext2D, text: string, x: number, y: number, maxWidth: number, lineHeight: number): void {
+  let line = '';
+  for (const word of text.split(' ')) {
+    const next = line ? `${line} ${word}` : word;
+    if (g.measureText(next).width > maxWidth && line) {
+      g.fillText(line, x, y);
+      line = word;
+      y += lineHeight;
+    } else line = next;
+  }
+  if (line) g.fillText(line, x, y);
+}

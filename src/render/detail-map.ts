@@ -5,7 +5,7 @@
  */
 import type { SKRSContext2D } from '@napi-rs/canvas';
 import type { LabelVerdict } from '../analysis/labels.js';
-import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
+import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba, wrapText } from './canvas.js';
 import { logScale, niceLogTicks, viridisTable } from './colour-scale.js';
 
 export interface DetailMapInput {
@@ -262,15 +262,3 @@ function drawLegend(g: SKRSContext2D, l: LegendLayout): void {
   wrapText(g, note, pad, barY + barH + l.text * 3.7, l.width - 2 * pad, l.text * 1.05);
 }
 
-function wrapText(g: SKRSContext2D, text: string, x: number, y: number, maxWidth: number, lineHeight: number): void {
-  let line = '';
-  for (const word of text.split(' ')) {
-    const next = line ? `${line} ${word}` : word;
-    if (g.measureText(next).width > maxWidth && line) {
-      g.fillText(line, x, y);
-      line = word;
-      y += lineHeight;
-    } else line = next;
-  }
-  if (line) g.fillText(line, x, y);
-}
