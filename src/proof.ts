@@ -39,6 +39,8 @@ export interface ProofOutputs {
   report: Record<string, unknown>;
   result: ProofResult;
   fixations?: FixationResult[];
+  /** With several fixations: each one's percept, at most 960 px wide, as JPEG. */
+  fixationPictures?: { given: string; jpeg: Uint8Array }[];
 }
 
 /** One line describing the setup and viewer, for captions. */
@@ -225,7 +227,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
     { name: 'report.json', bytes: `${JSON.stringify(report, null, 2)}\n` },
     { name: 'review.html', bytes: review },
   ];
-  return { files, report, result, ...(fixationResults ? { fixations: fixationResults } : {}) };
+  return { files, report, result, ...(fixationResults ? { fixations: fixationResults } : {}), ...(fixationPictures.length ? { fixationPictures } : {}) };
 }
 
 /** The text runs of a frame (detect-text.ts), decoded and checked as a proof would. */

@@ -38,6 +38,8 @@ interface Done {
   labels?: LabelVerdict[];
   /** The percept, small: THUMB_WIDTH wide for the sheet, COMPARE_WIDTH for the two-viewer picture. */
   thumb: Thumb;
+  /** With a gaze list: each fixation's percept for the sheet, and what it was. */
+  fixationThumbs?: { given: string; thumb: Thumb; labels?: LabelVerdict[] }[];
   wide?: Thumb;
 }
 
@@ -57,6 +59,12 @@ function counts(labels: readonly LabelVerdict[] | undefined): string {
   return `${c.readable} readable · ${c.legible} legible · ${c['not legible']} not legible`;
 }
 
+/** A small picture from JPEG bytes (a fixation's percept). */
+async function thumbnailOfJpeg(jpeg: Uint8Array, width: number): Promise<Thumb> {
+  const { data, info } = await sharp(jpeg).resize({ width, kernel: 'lanczos3' }).ensureAlpha().raw().toBuffer({ resolveWithObject: true });
+  return { rgba: new Uint8Array(data), width: info.width, height: info.height };
+}
+
 async function thumbnail(out: ProofOutputs, width: number): Promise<Thumb> {
   const p = out.result.percept;
   const rgba = linearToRgba8(p);
@@ -71,15 +79,24 @@ function put(g: ReturnType<typeof newCanvas>['g'], img: { rgba: Uint8Array; widt
   g.putImageData(data, x, y);
 }
 
-/** The percepts in a grid (frames in rows, viewers in columns), each with a one-line caption. */
+/** The percepts in a grid (a row per frame and fixation, viewers in columns), each with a one-line caption. */
 async function contactSheet(done: Done[], frames: SweepFrame[], variants: SweepVariant[]): Promise<Uint8Array> {
   const pad = 16;
   const caption = 44;
-  const thumbs = done.map((d) => d.thumb);
+  // One cell per proof and fixation; rows: frames, each as many times as its gaze list is long.
+  const cells = done.flatMap((d) => (d.fixationThumbs?.length ? d.fixationThumbs.map((f, k) => ({ d, k, given: f.given, thumb: f.thumb, labels: f.labels })) : [{ d, k: 0, given: `${d.numbers.gazePx.join(',')} px`, thumb: d.thumb, labels: d.labels }]));
+  const rowsPerFrame = new Map(frames.map((f) => [f, Math.max(1, ...done.filter((d) => d.frame === f).map((d) => d.fixationThumbs?.length ?? 1))]));
+  const rowStart = new Map<SweepFrame, number>();
+  let rowCount = 0;
+  for (const f of frames) {
+    rowStart.set(f, rowCount);
+    rowCount += rowsPerFrame.get(f)!;
+  }
+  const thumbs = cells.map((c) => c.thumb);
   const cellH = Math.max(...thumbs.map((t) => t.height)) + caption;
   const width = pad + variants.length * (THUMB_WIDTH + pad);
   const header = 56;
-  const height = header + frames.length * (cellH + pad) + 28;
+  const height = header + rowCount * (cellH + pad) + 28;
   const { canvas, g } = newCanvas(width, height);
   g.fillStyle = '#15171c';
   g.fillRect(0, 0, width, height);
@@ -88,19 +105,19 @@ async function contactSheet(done: Done[], frames: SweepFrame[], variants: SweepV
   g.fillText(`Contact sheet: ${frames.length} frame${frames.length > 1 ? 's' : ''} × ${variants.length} viewer${variants.length > 1 ? 's' : ''} — what each viewer resolves`, pad, 28);
   g.font = font(13);
   g.fillStyle = '#9aa3b0';
-  g.fillText('Rows: frames. Columns: viewers. Captions: frame · viewer · label verdicts.', pad, 46);
-  done.forEach((d, i) => {
-    const row = frames.indexOf(d.frame);
-    const col = variants.indexOf(d.variant);
+  g.fillText('Rows: frames (and each gaze of a gaze list). Columns: viewers. Captions: frame · viewer · gaze, then the label verdicts.', pad, 46);
+  cells.forEach((c, i) => {
+    const row = rowStart.get(c.d.frame)! + c.k;
+    const col = variants.indexOf(c.d.variant);
     const x = pad + col * (THUMB_WIDTH + pad);
     const y = header + row * (cellH + pad);
     put(g, thumbs[i], x, y);
     g.fillStyle = '#f0f0f0';
     g.font = font(13, true);
-    g.fillText(`${d.frame.name} · ${d.variant.name} · gaze ${d.numbers.gazePx.join(',')} px`, x, y + thumbs[i].height + 17);
+    g.fillText(`${c.d.frame.name} · ${c.d.variant.name} · gaze ${c.given}`, x, y + thumbs[i].height + 17);
     g.font = font(12);
     g.fillStyle = '#cfd4dc';
-    g.fillText(counts(d.labels), x, y + thumbs[i].height + 34);
+    g.fillText(counts(c.labels), x, y + thumbs[i].height + 34);
   });
   g.font = font(11);
   g.fillStyle = '#9aa3b0';
@@ -201,7 +218,13 @@ export async function runSweep(frames: SweepFrame[], variants: SweepVariant[], o
       for (const f of out.files) files.push({ name: `${frame.name}/${variant.name}/${f.name}`, bytes: f.bytes });
       // Only small pictures and the figures are kept: the proof's full-size arrays go.
       const first = frame === frames[0] && variants.indexOf(variant) < 2 && variants.length > 1;
-      done.push({ frame, variant, numbers: out.result.numbers, ...(out.result.labels ? { labels: out.result.labels } : {}), thumb: await thumbnail(out, THUMB_WIDTH), ...(first ? { wide: await thumbnail(out, COMPARE_WIDTH) } : {}) });
+      const fixationThumbs = out.fixationPictures
+        ? await Promise.all(out.fixationPictures.map(async (p, k) => ({ given: p.given, thumb: await thumbnailOfJpeg(p.jpeg, THUMB_WIDTH), ...(out.fixations?.[k]?.labels ? { labels: out.fixations[k].labels } : {}) })))
+        : undefined;
+      done.push({
+        frame, variant, numbers: out.result.numbers, ...(out.result.labels ? { labels: out.result.labels } : {}), thumb: await thumbnail(out, THUMB_WIDTH),
+        ...(first ? { wide: await thumbnail(out, COMPARE_WIDTH) } : {}), ...(fixationThumbs ? { fixationThumbs } : {}),
+      });
     }
   }
   onProgress(total, total, 'contact sheet');
