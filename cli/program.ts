@@ -23,7 +23,7 @@ import { acuityModels } from '../src/retina/acuity-model.js';
 import { detectLabelsInFrame, proofFrame, PROOF_OUTPUT_NAMES, type ProofInputs } from '../src/proof.js';
 import { runSweep, SWEEP_FILES, type SweepFrame, type SweepVariant } from '../src/sweep.js';
 import type { DepthUnit } from '../src/io/decode-depth.js';
-import { numbersReport } from '../src/report/build-report.js';
+import { describeVerdicts, numbersReport } from '../src/report/build-report.js';
 import { GAZE_FORMS, isPlainPixels } from '../src/geometry/gaze-spec.js';
 import { formatLabelSummary } from './format-labels.js';
 import { CAUTION_SHORT } from '../src/report/cautions.js';
@@ -254,11 +254,7 @@ async function runSweepCommand(io: CliIo, frameFiles: string[], variants: SweepV
   for (const n of [...new Set(notes)]) io.err(`eyeproof: note: ${n}\n`);
   await writeOutputsAtomically(opts.out, files);
   if (quiet) return;
-  for (const d of done) {
-    const c = { readable: 0, legible: 0, 'not legible': 0 } as Record<string, number>;
-    for (const l of d.labels ?? []) c[l.verdict] = (c[l.verdict] ?? 0) + 1;
-    io.err(`  ${d.frame.name} · ${d.variant.name}: ${d.labels ? `${c.readable} readable, ${c.legible} legible, ${c['not legible']} not legible` : 'no labels'}\n`);
-  }
+  for (const d of done) io.err(`  ${d.frame.name} · ${d.variant.name}: ${d.labels ? describeVerdicts(d.labels) : 'no labels'}\n`);
   io.err(`eyeproof: wrote a sweep of ${done.length} proofs into ${opts.out}/ (contact-sheet.png, ${variants.length > 1 ? 'compare-viewers.png, ' : ''}sweep.html, sweep.json and one folder per frame and viewer)\n`);
 }
 

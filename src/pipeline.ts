@@ -7,7 +7,7 @@
  * `lookAt` does what depends on the gaze — the view geometry, the retina's cutoffs, the percept, the
  * letter-size maps and the label verdicts — and is the cheap step a sweep or a live preview repeats.
  */
-import { luminancePlaneCdM2 } from './colour/luminance.js';
+import { luminancePlaneCdM2, relativeLuminance } from './colour/luminance.js';
 import { transformPlanes, type Matrix3 } from './colour/matrix3.js';
 import { scotopicOfLinearSrgb } from './colour/scotopic.js';
 import { checkGazeInFrame } from './config/validate.js';
@@ -669,12 +669,7 @@ export function designUnitsFor(setup: Setup, frameWidthPx: number): DesignUnits 
 export function labelMapsFor(prepared: PreparedProof, ctx: Context, viewMap: ViewMap, seen?: Float32Array): LabelMaps {
   const { setup, model, frame } = prepared;
   let luminance = frameLuminance.get(prepared);
-  if (!luminance) {
-    luminance = new Float32Array(frame.width * frame.height);
-    const [r, g, b] = frame.planes;
-    for (let i = 0; i < luminance.length; i++) luminance[i] = 0.2126 * r[i] + 0.7152 * g[i] + 0.0722 * b[i];
-    frameLuminance.set(prepared, luminance);
-  }
+  if (!luminance) frameLuminance.set(prepared, (luminance = relativeLuminance(frame)));
   const coneShare = model.light.mesopicFactorM;
   const { eyes } = setup.viewer;
   const lettersAt = audienceLetterCache(prepared);

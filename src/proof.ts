@@ -3,7 +3,6 @@
  * report out. No argv, exit codes or HTTP here.
  */
 import sharp from 'sharp';
-import type { LinearRgb } from './image/plane.js';
 import type { Setup } from './config/setup.js';
 import { ConfigError, InputError } from './errors.js';
 import { checkFramePixels, DEFAULT_MAX_FRAME_PIXELS, probeImage, decodeFrame } from './io/decode-frame.js';
@@ -14,7 +13,7 @@ import { renderCompare } from './render/compare.js';
 import { renderDetailMap } from './render/detail-map.js';
 import { renderPsfPicture } from './render/psf-picture.js';
 import { projectionFor } from './geometry/projection.js';
-import { LABEL_RULE, proofReport } from './report/build-report.js';
+import { describeVerdicts, LABEL_RULE, proofReport } from './report/build-report.js';
 import { FRAME_MIN_LETTER_PX, READING_RESERVE } from './analysis/letter-size.js';
 import { AUDIENCE_SOURCES } from './analysis/audience.js';
 import { renderAudienceChart, renderReach } from './render/answers.js';
@@ -22,11 +21,11 @@ import { parseLabels } from './io/read-labels.js';
 import { labelsFromSvg } from './io/read-svg-text.js';
 import { decodeDepthMap, type DepthUnit } from './io/decode-depth.js';
 import { CAUTION_SHORT, CAUTIONS } from './report/cautions.js';
-import { renderReviewPage, type ReviewInput } from './render/review-page.js';
+import { renderReviewPage, type ReviewImage, type ReviewInput } from './render/review-page.js';
 import { basename } from 'node:path';
 import { EYEPROOF_VERSION } from './version.js';
 import { resolveGazeSpec, type ResolvedGaze } from './geometry/gaze-spec.js';
-import type { Label, LabelVerdict } from './analysis/labels.js';
+import { countedJudgement, type Label, type LabelVerdict } from './analysis/labels.js';
 import { detectTextRuns, type DetectedRun } from './analysis/detect-text.js';
 
 export const PROOF_OUTPUT_NAMES = ['percept.png', 'detail-map.png', 'compare.png', 'compare-slide.png', 'reach.png', 'audience.png', 'psf.png', 'report.json', 'review.html'] as const;
@@ -124,11 +123,13 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   const scale = frameScaleFor(setup, probe.width, probe.height);
   if (scale.note) onNote(scale.note);
   const { image, info } = await decodeFrame(frameBytes, frameFile, setup.frame.backgroundRgb, maxPixels);
+  // The frame as 8-bit sRGB: text is found in it, and every picture shows it.
+  const frameRgba = linearToRgba8(image);
   let labels: Label[] | undefined = labelsInput ? readLabelsInput(labelsInput, image.width, image.height) : undefined;
   let detected: DetectedRun[] | undefined;
   if (!labels && inputs.detectLabels) {
     onStage('finding text in the frame');
-    detected = detectTextRuns(linearToRgba8(image), image.width, image.height);
+    detected = detectTextRuns(frameRgba, image.width, image.height);
     labels = detected;
     onNote(`no labels file, so ${detected.length} text runs found in the frame are judged (as "look" labels; text is not read back). Write them with \`eyeproof labels ${frameFile}\`, correct them and give roles, then pass the file with --labels.`);
   }
@@ -149,7 +150,6 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   onStage('rendering outputs');
   const caption = setupCaption(setup, result);
   const { width, height } = image;
-  const frameRgba = linearToRgba8(image);
   const perceptRgba = linearToRgba8(result.percept);
   const percept = await encodeRgba8Png(perceptRgba, width, height);
   const detail = renderDetailMap({
@@ -187,7 +187,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
       const gazePx: [number, number] = [Math.round(f.gazePx[0]), Math.round(f.gazePx[1])];
       const look = i === 0 ? result : (scratch = lookAt(prepared, { ...(labels ? { labels } : {}), gazePx, ...(scratch ? { reuse: scratch } : {}) }));
       fixationResults.push({ given: f.given, gazePx, outsideFrame: f.outsideFrame, ...(look.labels ? { labels: look.labels } : {}) });
-      if (fixations.length > 1) fixationPictures.push({ given: f.given, jpeg: await smallJpeg(look.percept) });
+      if (fixations.length > 1) fixationPictures.push({ given: f.given, jpeg: await smallJpeg(i === 0 ? perceptRgba : linearToRgba8(look.percept), width, height) });
     }
   }
   const report = proofReport(setup, result, { file: frameFile, info }, [...PROOF_OUTPUT_NAMES], {
@@ -198,19 +198,19 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
   const detailPng = await encodeRgba8Png(detail.rgba, detail.width, detail.height);
   const reachPng = await encodeRgba8Png(reach.rgba, reach.width, reach.height);
   const audiencePng = await encodeRgba8Png(audienceChart.rgba, audienceChart.width, audienceChart.height);
-  const slideHeight = (p: { width: number; height: number }): number => Math.round((p.height * Math.min(SLIDE_WIDTH_PX, p.width)) / p.width);
+  const compareSlide = await slideSized(compare);
   const review = renderReviewPage({
     title: `eyeproof review — ${basename(frameFile)}`,
     caption,
     frame: { png: await encodeRgba8Png(frameRgba, width, height), width, height },
     percept: { png: percept, width, height },
     perceptTitle: setup.percept.mode === 'same-display' ? `what this viewer resolves, shown for the ${setup.percept.referenceViewerName ?? 'custom'} reference viewer` : 'what this viewer resolves, on the retina',
-    detailMap: { png: await slideSized(detail), width: Math.min(SLIDE_WIDTH_PX, detail.width), height: slideHeight(detail) },
-    reach: { png: await slideSized(reach), width: Math.min(SLIDE_WIDTH_PX, reach.width), height: slideHeight(reach) },
+    detailMap: await slideSized(detail),
+    reach: await slideSized(reach),
     audience: { png: audiencePng, width: audienceChart.width, height: audienceChart.height },
-    compare: { png: await slideSized(compare), width: Math.min(SLIDE_WIDTH_PX, compare.width), height: slideHeight(compare) },
+    compare: compareSlide,
     ...(result.labels ? reviewLabels(result.labels) : {}),
-    ...(fixationResults && fixationResults.length > 1 ? { fixations: fixationResults.map((f, i) => ({ given: f.given, gazePx: f.gazePx, summary: f.labels ? summaryLine(f.labels) : '', ...(fixationPictures[i] ? { jpeg: fixationPictures[i].jpeg } : {}) })) } : {}),
+    ...(fixationResults && fixationResults.length > 1 ? { fixations: fixationResults.map((f, i) => ({ given: f.given, gazePx: f.gazePx, summary: f.labels ? describeVerdicts(f.labels) : '', ...(fixationPictures[i] ? { jpeg: fixationPictures[i].jpeg } : {}) })) } : {}),
     facts: reviewFacts(setup, result),
     models: ((report.models ?? []) as { stage: string; name: string; source: string }[]).map((m) => ({ stage: m.stage, name: m.name, source: m.source })),
     cautions: CAUTIONS,
@@ -220,7 +220,7 @@ export async function proofFrame(frameBytes: Uint8Array, frameFile: string, give
     { name: 'percept.png', bytes: percept },
     { name: 'detail-map.png', bytes: detailPng },
     { name: 'compare.png', bytes: comparePng },
-    { name: 'compare-slide.png', bytes: await slideSized(compare) },
+    { name: 'compare-slide.png', bytes: compareSlide.png },
     { name: 'reach.png', bytes: reachPng },
     { name: 'audience.png', bytes: audiencePng },
     { name: 'psf.png', bytes: await encodeRgba8Png(psf.rgba, psf.width, psf.height) },
@@ -238,30 +238,24 @@ export async function detectLabelsInFrame(bytes: Uint8Array, file: string, maxPi
   return { runs: detectTextRuns(linearToRgba8(image), image.width, image.height), width: image.width, height: image.height };
 }
 
-/** A picture scaled down (never up) to at most SLIDE_WIDTH_PX wide, for slides. */
-async function slideSized(picture: { rgba: Uint8ClampedArray; width: number; height: number }): Promise<Uint8Array> {
+/** A picture scaled down (never up) to at most SLIDE_WIDTH_PX wide, for slides, as PNG with its size. */
+async function slideSized(picture: { rgba: Uint8ClampedArray; width: number; height: number }): Promise<ReviewImage> {
   const width = Math.min(SLIDE_WIDTH_PX, picture.width);
-  const png = await sharp(Buffer.from(picture.rgba.buffer, picture.rgba.byteOffset, picture.rgba.byteLength), { raw: { width: picture.width, height: picture.height, channels: 4 } })
-    .resize({ width, kernel: 'lanczos3' }).removeAlpha().png({ compressionLevel: 6 }).toBuffer();
-  return new Uint8Array(png);
+  const { data, info } = await sharp(Buffer.from(picture.rgba.buffer, picture.rgba.byteOffset, picture.rgba.byteLength), { raw: { width: picture.width, height: picture.height, channels: 4 } })
+    .resize({ width, kernel: 'lanczos3' }).removeAlpha().png({ compressionLevel: 6 }).toBuffer({ resolveWithObject: true });
+  return { png: new Uint8Array(data), width: info.width, height: info.height };
 }
 
-/** One line of verdict counts. */
-function summaryLine(verdicts: readonly LabelVerdict[]): string {
-  const c = { readable: 0, legible: 0, 'not legible': 0, 'not judged': 0 };
-  for (const v of verdicts) c[v.verdict]++;
-  return `${c.readable} readable, ${c.legible} legible, ${c['not legible']} not legible${c['not judged'] ? `, ${c['not judged']} decorative` : ''}`;
-}
 
 /** The label table of the review page: the same verdicts as the report, worst first. */
 function reviewLabels(verdicts: readonly LabelVerdict[]): Pick<ReviewInput, 'labels' | 'labelRule' | 'labelSummary'> {
   const order = { 'not legible': 0, legible: 1, readable: 2, 'not judged': 3 } as const;
   const pct = (v: number): string => `${Math.round(100 * v)} %`;
   return {
-    labelSummary: `${verdicts.length} labels, each judged by its role: ${summaryLine(verdicts)}.`,
+    labelSummary: `${verdicts.length} labels, each judged by its role: ${describeVerdicts(verdicts)}.`,
     labelRule: LABEL_RULE,
     labels: [...verdicts].sort((a, b) => order[a.verdict] - order[b.verdict]).map((v) => {
-      const j = v.role === 'glance' ? v.fromGaze : v.whenFixated;
+      const j = countedJudgement(v);
       return {
         id: v.id, text: v.text, role: v.role, verdict: v.verdict,
         limitedBy: v.role === 'decorative' ? '' : j.limitedBy === 'size' ? `size (${j.sizeLimitedBy})` : j.limitedBy,
@@ -290,9 +284,8 @@ function reviewFacts(setup: Setup, result: ProofResult): [string, string][] {
   ];
 }
 
-/** A percept at most 960 px wide as JPEG, for pages that step through fixations. */
-async function smallJpeg(percept: LinearRgb): Promise<Uint8Array> {
-  const rgba = linearToRgba8(percept);
-  return new Uint8Array(await sharp(Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength), { raw: { width: percept.width, height: percept.height, channels: 4 } })
-    .resize({ width: Math.min(960, percept.width), kernel: 'lanczos3' }).removeAlpha().jpeg({ quality: 85 }).toBuffer());
+/** A percept (8-bit RGBA) at most 960 px wide as JPEG, for pages that step through fixations. */
+async function smallJpeg(rgba: Uint8ClampedArray, width: number, height: number): Promise<Uint8Array> {
+  return new Uint8Array(await sharp(Buffer.from(rgba.buffer, rgba.byteOffset, rgba.byteLength), { raw: { width, height, channels: 4 } })
+    .resize({ width: Math.min(960, width), kernel: 'lanczos3' }).removeAlpha().jpeg({ quality: 85 }).toBuffer());
 }

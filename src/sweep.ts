@@ -12,6 +12,7 @@ import { linearToRgba8 } from './io/encode-png.js';
 import { proofFrame, type ProofInputs, type ProofOutputs } from './proof.js';
 import { canvasRgba, font, newCanvas } from './render/canvas.js';
 import { CAUTION_SHORT, CAUTIONS } from './report/cautions.js';
+import { describeVerdicts } from './report/build-report.js';
 import { EYEPROOF_VERSION } from './version.js';
 
 export interface SweepFrame {
@@ -53,10 +54,7 @@ const THUMB_WIDTH = 480;
 const COMPARE_WIDTH = 900;
 
 function counts(labels: readonly LabelVerdict[] | undefined): string {
-  if (!labels) return 'no labels';
-  const c = { readable: 0, legible: 0, 'not legible': 0, 'not judged': 0 };
-  for (const l of labels) c[l.verdict]++;
-  return `${c.readable} readable · ${c.legible} legible · ${c['not legible']} not legible`;
+  return labels ? describeVerdicts(labels, ' · ') : 'no labels';
 }
 
 /** A small picture from JPEG bytes (a fixation's percept). */

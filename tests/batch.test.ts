@@ -3,13 +3,14 @@
  * same plan through a real Redis (Debian's redis-server, started on a free loopback port with no
  * persistence) with two worker processes, one killed mid-job.
  */
-import { execFile, spawn, type ChildProcess } from 'node:child_process';
+import { spawn, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { runEyeproof } from './helpers/run-cli.js';
 import { ConfigError } from '../src/errors.js';
 import { expandPlan, readPlan } from '../src/batch/plan.js';
 import { enqueuePlan, waitForPlan } from '../src/batch/queue.js';
@@ -17,13 +18,7 @@ import { enqueuePlan, waitForPlan } from '../src/batch/queue.js';
 const root = join(import.meta.dirname, '..');
 let dir: string;
 
-function cli(args: string[]): Promise<{ code: number; stderr: string; stdout: string }> {
-  return new Promise((resolve) => {
-    execFile(process.execPath, ['--import', 'tsx', join(root, 'cli/eyeproof.ts'), ...args], { cwd: root, maxBuffer: 1 << 24 }, (err, stdout, stderr) => {
-      resolve({ code: err ? (typeof err.code === 'number' ? err.code : 1) : 0, stdout, stderr });
-    });
-  });
-}
+const cli = runEyeproof;
 
 function writePlan(name: string, rootFolder: string, extra: Record<string, unknown> = {}): string {
   const file = join(dir, name);

@@ -1,20 +1,14 @@
-import { execFile } from 'node:child_process';
 import { copyFileSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import sharp from 'sharp';
 import { beforeAll, describe, expect, test } from 'vitest';
+import { runEyeproof } from './helpers/run-cli.js';
 import { neuralAcuityFactor } from '../src/retina/neural-ageing.js';
 
 const root = join(import.meta.dirname, '..');
 
-function run(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  return new Promise((resolve) => {
-    execFile(process.execPath, ['--import', 'tsx', join(root, 'cli/eyeproof.ts'), ...args], { cwd: root, maxBuffer: 1 << 24 }, (err, stdout, stderr) => {
-      resolve({ code: err ? (typeof err.code === 'number' ? err.code : 1) : 0, stdout, stderr });
-    });
-  });
-}
+const run = runEyeproof;
 
 let dir: string;
 let frame: string;

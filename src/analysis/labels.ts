@@ -189,6 +189,11 @@ export function designLength(px: number, arcminPerPx: number, units: DesignUnits
   return { px, designPx: px / units.pixelRatio, ...(mm !== undefined ? { mm, pt: mm / MM_PER_POINT } : {}), arcmin: px * arcminPerPx };
 }
 
+/** The judgement a label's verdict rests on: from the gaze for glance labels, when looked at otherwise. */
+export function countedJudgement(v: Pick<LabelVerdict, 'role' | 'fromGaze' | 'whenFixated'>): Judgement {
+  return v.role === 'glance' ? v.fromGaze : v.whenFixated;
+}
+
 /** Critical spacing of crowding at eccentricity φ, deg (Song, Levi & Pelli 2014, Eq. 14). */
 export function criticalSpacingDeg(eccentricityDeg: number): number {
   return 0.3 * (eccentricityDeg + 0.45);
@@ -373,7 +378,7 @@ export function judgeLabel(label: Label, maps: LabelMaps): LabelVerdict {
   const fixatedPlace: Place = { eccentricityDeg: 0, meridianDeg: 0, arcminPerPx, inBlindSpot: false };
   const fromGaze = judgeAt(label, g, gazePlace, maps);
   const whenFixated = judgeAt(label, g, fixatedPlace, maps);
-  const counted = role === 'glance' ? fromGaze : whenFixated;
+  const counted = countedJudgement({ role, fromGaze, whenFixated });
   const verdict: Verdict = role === 'decorative' ? 'not judged' : counted.verdict;
   const passes = role === 'decorative' ? null : verdict === 'readable';
   const place = role === 'glance' ? gazePlace : fixatedPlace;

@@ -5,7 +5,7 @@
  */
 import { existsSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import type { LabelVerdict } from '../analysis/labels.js';
+import { countedJudgement, type LabelVerdict } from '../analysis/labels.js';
 import { displayPresets, viewerPresets } from '../config/presets.js';
 import { mergeSetupJson, validateSetup } from '../config/validate.js';
 import { MAX_JSON_FILE_BYTES, readInputBytes, readSetupJson } from '../io/read-input.js';
@@ -61,7 +61,7 @@ const round = (v: number, d = 4): number => Math.round(v * 10 ** d) / 10 ** d;
 
 function labelResults(labels: readonly LabelVerdict[] | undefined): JobLabelResult[] {
   return (labels ?? []).map((v) => {
-    const j = v.role === 'glance' ? v.fromGaze : v.whenFixated;
+    const j = countedJudgement(v);
     return {
       id: v.id, role: v.role, verdict: v.verdict, passes: v.passes, limitedBy: v.role === 'decorative' ? '' : j.limitedBy,
       margin: v.role === 'decorative' ? 1 : round(Math.min(...j.limits.map((l) => l.margin))),

@@ -14,6 +14,7 @@
  */
 import type { LinearRgb } from '../image/plane.js';
 import { expand7, reduce7, reducedSize } from '../image/binomial.js';
+import { LUMINANCE_WEIGHTS } from '../colour/srgb.js';
 import { createFft2dPlan, fft2dForward, nextPowerOfTwo } from './fft2d.js';
 import { GLARE_MAX_DEG, glareKernel, scatteredFraction, VEIL_FROM_DEG } from './stray-light.js';
 
@@ -139,9 +140,10 @@ export function addVeil(image: LinearRgb, input: VeilInput): VeilResult {
   // The viewer's own veil of luminance, relative to white: the applied veil without a reference eye,
   // one more transform with the viewer's own kernel with one.
   const viewerValues = new Float32Array(lw * lh);
+  const [wr, wg, wb] = LUMINANCE_WEIGHTS;
   const peak = input.peakLuminanceCdM2;
   if (!input.reference) {
-    for (let i = 0; i < lw * lh; i++) viewerValues[i] = (0.2126 * veils[0][i] + 0.7152 * veils[1][i] + 0.0722 * veils[2][i] + surround * ownTotal) / peak;
+    for (let i = 0; i < lw * lh; i++) viewerValues[i] = (wr * veils[0][i] + wg * veils[1][i] + wb * veils[2][i] + surround * ownTotal) / peak;
   } else {
     const ko = new Float64Array(2 * fw * fh);
     for (let y = 0; y < size; y++) {
@@ -152,7 +154,7 @@ export function addVeil(image: LinearRgb, input: VeilInput): VeilResult {
     const data = new Float64Array(2 * fw * fh);
     for (let y = 0; y < lh; y++) for (let x = 0; x < lw; x++) {
       const i = y * lw + x;
-      data[2 * (y * fw + x)] = (0.2126 * low[0][i] + 0.7152 * low[1][i] + 0.0722 * low[2][i]) * range + black - surround;
+      data[2 * (y * fw + x)] = (wr * low[0][i] + wg * low[1][i] + wb * low[2][i]) * range + black - surround;
     }
     fft2dForward(plan, data);
     for (let i = 0; i < fw * fh; i++) {

@@ -4,7 +4,7 @@
  * the Okabe–Ito palette (colour-blind safe, common practice), and every line also carries its name.
  */
 import type { LabelVerdict } from '../analysis/labels.js';
-import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba, wrapText } from './canvas.js';
+import { canvasRgba, drawGazeMarker, drawPictureHeader, font, haloText, newCanvas, putRgba, wrapText } from './canvas.js';
 
 /** Okabe & Ito (2008) colour-blind-safe palette, without black. */
 const PALETTE = ['#E69F00', '#56B4E9', '#009E73', '#F0E442', '#0072B2', '#D55E00', '#CC79A7'];
@@ -60,17 +60,10 @@ export function renderReach(input: ReachInput): { rgba: Uint8ClampedArray; width
   });
   drawGazeMarker(g, input.gazePx[0] + 0.5, header + input.gazePx[1] + 0.5, text * 0.8);
   g.restore();
-  g.fillStyle = '#f0f0f0';
-  g.font = font(text * 1.05, true);
-  g.fillText(glance.length
+  const title = glance.length
     ? 'Reach: where the gaze can rest for each glance label to be read without moving the eyes (size, crowding, contrast)'
-    : 'Reach: no glance labels — give labels "role": "glance" to see where they can be read from', text * 0.6, text * 1.5);
-  g.font = font(text * 0.9);
-  g.fillStyle = '#cfd4dc';
-  g.fillText(input.caption, text * 0.6, text * 2.8);
-  g.fillStyle = '#9aa3b0';
-  g.font = font(text * 0.75);
-  g.fillText(input.caution, text * 0.6, text * 3.9);
+    : 'Reach: no glance labels — give labels "role": "glance" to see where they can be read from';
+  drawPictureHeader(g, text, [[title, text * 0.6]], input.caption, input.caution);
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
 }
 

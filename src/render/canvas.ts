@@ -67,6 +67,22 @@ export function drawGazeMarker(g: SKRSContext2D, x: number, y: number, sizePx: n
   }
 }
 
+/**
+ * The header band of the side-by-side pictures: titles (each at its x) in bold, the caption, and the
+ * caution line, in the pictures' shared type sizes.
+ */
+export function drawPictureHeader(g: SKRSContext2D, text: number, titles: readonly [string, number][], caption: string, caution: string): void {
+  g.fillStyle = '#f0f0f0';
+  g.font = font(text * 1.05, true);
+  for (const [title, x] of titles) g.fillText(title, x, text * 1.5);
+  g.font = font(text * 0.9);
+  g.fillStyle = '#cfd4dc';
+  g.fillText(caption, text * 0.6, text * 2.8);
+  g.fillStyle = '#9aa3b0';
+  g.font = font(text * 0.75);
+  g.fillText(caution, text * 0.6, text * 3.9);
+}
+
 /** Fills text wrapped at word breaks to a width, line by line from (x, y). */
 export function wrapText(g: SKRSContext2D, text: string, x: number, y: number, maxWidth: number, lineHeight: number): void {
   let line = '';

@@ -5,7 +5,7 @@
 import type { SKRSContext2D } from '@napi-rs/canvas';
 import type { Projection } from '../geometry/projection.js';
 import { isInsideFrame, pixelAtFieldPoint } from '../geometry/view-map.js';
-import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba } from './canvas.js';
+import { canvasRgba, drawGazeMarker, drawPictureHeader, haloText, newCanvas, putRgba } from './canvas.js';
 import { drawLabelBoxes } from './detail-map.js';
 import type { LabelVerdict } from '../analysis/labels.js';
 
@@ -51,16 +51,7 @@ export function renderCompare(input: CompareInput): { rgba: Uint8ClampedArray; w
     g.restore();
   }
   if (input.labels) drawLabelBoxes(g, input.labels, text, width, height, 0, header);
-  g.fillStyle = '#f0f0f0';
-  g.font = font(text * 1.05, true);
-  g.fillText('Frame as displayed', text * 0.6, text * 1.5);
-  g.fillText(input.perceptTitle, width + gap + text * 0.6, text * 1.5);
-  g.font = font(text * 0.9);
-  g.fillStyle = '#cfd4dc';
-  g.fillText(input.caption, text * 0.6, text * 2.8);
-  g.fillStyle = '#9aa3b0';
-  g.font = font(text * 0.75);
-  g.fillText(input.caution, text * 0.6, text * 3.9);
+  drawPictureHeader(g, text, [['Frame as displayed', text * 0.6], [input.perceptTitle, width + gap + text * 0.6]], input.caption, input.caution);
   return { rgba: canvasRgba(canvas), width: canvas.width, height: canvas.height };
 }
 

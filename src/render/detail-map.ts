@@ -4,7 +4,7 @@
  * and arcmin.
  */
 import type { SKRSContext2D } from '@napi-rs/canvas';
-import type { LabelVerdict } from '../analysis/labels.js';
+import { countedJudgement, type LabelVerdict } from '../analysis/labels.js';
 import { canvasRgba, drawGazeMarker, font, haloText, newCanvas, putRgba, wrapText } from './canvas.js';
 import { logScale, niceLogTicks, viridisTable } from './colour-scale.js';
 
@@ -201,7 +201,7 @@ export function drawLabelBoxes(g: SKRSContext2D, labels: readonly LabelVerdict[]
     g.strokeRect(x - pad, y - pad, w + 2 * pad, h + 2 * pad);
     g.setLineDash([]);
     if (l.passes !== false) continue;
-    const judgement = l.role === 'glance' ? l.fromGaze : l.whenFixated;
+    const judgement = countedJudgement(l);
     const tag = `${failing ? '×' : '–'} ${judgement.limitedBy}${l.role === 'glance' ? ' from gaze' : ''}`;
     const size = text * 0.75;
     g.font = font(size);

@@ -3,7 +3,7 @@ import type { Setup } from '../config/setup.js';
 import type { FrameInfo } from '../io/decode-frame.js';
 import { CYCLES_PER_LETTER, OPTICAL_CYCLES_PER_LETTER, OPTICAL_THRESHOLD_MODULATION, READING_RESERVE } from '../analysis/letter-size.js';
 import type { DerivedNumbers, ProofResult } from '../pipeline.js';
-import { LIMIT_SOURCES, type LabelVerdict, type Verdict } from '../analysis/labels.js';
+import { countedJudgement, LIMIT_SOURCES, type LabelVerdict, type Verdict } from '../analysis/labels.js';
 import type { FrameScale } from '../pipeline.js';
 import type { FixationResult } from '../proof.js';
 import { NEURAL_CONTRAST_LOG_PER_YEAR, NEURAL_CONTRAST_ONSET_YEARS, neuralAcuityFactor } from '../retina/neural-ageing.js';
@@ -97,6 +97,12 @@ export function labelSummary(verdicts: readonly LabelVerdict[], view: 'verdict' 
   return counts;
 }
 
+/** Verdict counts by role in words ("3 readable, 2 legible, 1 not legible[, 1 decorative]"). */
+export function describeVerdicts(verdicts: readonly LabelVerdict[], separator = ', '): string {
+  const c = labelSummary(verdicts, 'verdict');
+  return [`${c.readable} readable`, `${c.legible} legible`, `${c['not legible']} not legible`, ...(c['not judged'] ? [`${c['not judged']} decorative`] : [])].join(separator);
+}
+
 /** The rule in words, for the report and the review material. */
 export const LABEL_RULE = `Each label is judged by its role: glance labels as seen from the gaze without moving the eyes, look labels (the default) when looked at, decorative labels not at all. `
   + `A label passes when readable: capital height at least ${READING_RESERVE}× the smallest legible letter at its farthest point (Whittaker & Lovie-Kitchin 1993), `
@@ -113,7 +119,7 @@ export interface ProofReportExtras {
 
 /** The label verdicts in the short form used per fixation. */
 function shortVerdicts(verdicts: readonly LabelVerdict[]): Record<string, unknown>[] {
-  return verdicts.map((v) => ({ id: v.id, role: v.role, verdict: v.verdict, passes: v.passes, limitedBy: (v.role === 'glance' ? v.fromGaze : v.whenFixated).limitedBy, eccentricityDeg: v.fromGaze.eccentricityDeg }));
+  return verdicts.map((v) => ({ id: v.id, role: v.role, verdict: v.verdict, passes: v.passes, limitedBy: countedJudgement(v).limitedBy, eccentricityDeg: v.fromGaze.eccentricityDeg }));
 }
 
 export function proofReport(setup: Setup, result: ProofResult, frame: { file: string; info: FrameInfo }, outputs: string[], extras: ProofReportExtras = {}): Record<string, unknown> {

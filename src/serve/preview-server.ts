@@ -15,7 +15,7 @@ import { randomBytes } from 'node:crypto';
 import type { AddressInfo } from 'node:net';
 import sharp from 'sharp';
 import { detectTextRuns, type DetectedRun } from '../analysis/detect-text.js';
-import type { LabelVerdict } from '../analysis/labels.js';
+import { countedJudgement, type LabelVerdict } from '../analysis/labels.js';
 import { displayPresets } from '../config/presets.js';
 import { validateSetup } from '../config/validate.js';
 import { ConfigError, InputError } from '../errors.js';
@@ -174,7 +174,7 @@ function setupFor(look: LookRequest, frame: LinearRgb): ReturnType<typeof valida
 
 function verdictsOf(labels: readonly LabelVerdict[] | undefined): unknown[] {
   return (labels ?? []).map((v) => {
-    const j = v.role === 'glance' ? v.fromGaze : v.whenFixated;
+    const j = countedJudgement(v);
     return { id: v.id, boxPx: v.boxPx, letterHeightPx: v.letterHeightPx, verdict: v.verdict, limitedBy: j.limitedBy, fix: v.fix?.summary ?? '', eccentricityDeg: Math.round(v.fromGaze.eccentricityDeg * 10) / 10 };
   });
 }
